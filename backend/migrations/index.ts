@@ -1,0 +1,11 @@
+import type { Knex } from 'knex';
+import * as foundation from './20261201000000_foundation';
+
+/**
+ * Every migration, in order. Listed here (not found on disk) so that the compiled server and the tests,
+ * which run from TypeScript source, apply exactly the same list. Add a new migration at the end; once
+ * shipped, never edit or reorder one.
+ */
+export const MIGRATIONS: ReadonlyArray<readonly [string, Knex.Migration]> = [
+  ['20261201000000_foundation', foundation],
+];

@@ -1,0 +1,45 @@
+import { randomUUID } from 'node:crypto';
+import { type DynamicModule, Module, RequestMethod } from '@nestjs/common';
+import { APP_FILTER } from '@nestjs/core';
+import { LoggerModule } from 'nestjs-pino';
+import { APP_CONFIG, type AppConfig } from './config/config';
+import { AllExceptionsFilter } from './common/exception.filter';
+import { DatabaseModule } from './database/database.module';
+import { MailModule } from './mail/mail.module';
+import { AuthModule } from './auth/auth.module';
+import { BranchesModule } from './branches/branches.module';
+import { UsersModule } from './users/users.module';
+import { HealthController } from './health/health.controller';
+
+@Module({})
+export class AppModule {
+  static forRoot(config: AppConfig): DynamicModule {
+    return {
+      module: AppModule,
+      global: true,
+      imports: [
+        LoggerModule.forRoot({
+          forRoutes: [{ path: '{*path}', method: RequestMethod.ALL }],
+          pinoHttp: {
+            level: config.logLevel,
+            // The id assigned by the first middleware (app.factory.ts).
+            genReqId: (req) => String((req as { id?: string }).id ?? randomUUID()),
+            redact: ['req.headers.authorization', 'req.headers.cookie'],
+            autoLogging: { ignore: (req) => req.url === '/api/health' },
+          },
+        }),
+        DatabaseModule,
+        MailModule,
+        AuthModule,
+        BranchesModule,
+        UsersModule,
+      ],
+      controllers: [HealthController],
+      providers: [
+        { provide: APP_CONFIG, useValue: config },
+        { provide: APP_FILTER, useClass: AllExceptionsFilter },
+      ],
+      exports: [APP_CONFIG],
+    };
+  }
+}

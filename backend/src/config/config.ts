@@ -1,0 +1,58 @@
+/**
+ * Every setting comes from the environment, with defaults that work on a developer's machine.
+ * Read once at start-up; the rest of the code receives the typed object.
+ */
+export interface AppConfig {
+  port: number;
+  host: string;
+  /** The address people open; links in e-mails point here. */
+  publicUrl: string;
+  database: { host: string; port: number; user: string; password: string; database: string };
+  jwt: { secret: string; expiresInSeconds: number };
+  loginThrottle: { limit: number; ttlMs: number };
+  invitationTtlHours: number;
+  mail: { host: string; port: number; from: string };
+  logLevel: string;
+  /** Where the built screens are; served by the same process when present. */
+  frontendDist: string | null;
+}
+
+function int(value: string | undefined, fallback: number, name: string): number {
+  if (value === undefined || value === '') return fallback;
+  if (!/^\d+$/.test(value)) throw new Error(`${name} must be a whole number, got "${value}"`);
+  return Number(value);
+}
+
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
+  const port = int(env.PORT, 3000, 'PORT');
+  const host = env.HOST ?? '127.0.0.1';
+  const secret = env.JWT_SECRET ?? (env.NODE_ENV === 'production' ? '' : 'loambook-development-secret-change-me');
+  if (secret.length < 16) throw new Error('JWT_SECRET must be set to at least 16 characters in production');
+  return {
+    port,
+    host,
+    publicUrl: (env.PUBLIC_URL ?? `http://${host}:${port}`).replace(/\/$/, ''),
+    database: {
+      host: env.PGHOST ?? '127.0.0.1',
+      port: int(env.PGPORT, 54329, 'PGPORT'),
+      user: env.PGUSER ?? 'loambook',
+      password: env.PGPASSWORD ?? 'loambook-local-only',
+      database: env.PGDATABASE ?? 'loambook',
+    },
+    jwt: { secret, expiresInSeconds: int(env.JWT_EXPIRES_IN_SECONDS, 8 * 3600, 'JWT_EXPIRES_IN_SECONDS') },
+    loginThrottle: {
+      limit: int(env.LOGIN_THROTTLE_LIMIT, 10, 'LOGIN_THROTTLE_LIMIT'),
+      ttlMs: int(env.LOGIN_THROTTLE_TTL_MS, 15 * 60 * 1000, 'LOGIN_THROTTLE_TTL_MS'),
+    },
+    invitationTtlHours: int(env.INVITATION_TTL_HOURS, 72, 'INVITATION_TTL_HOURS'),
+    mail: {
+      host: env.SMTP_HOST ?? '127.0.0.1',
+      port: int(env.SMTP_PORT, 1025, 'SMTP_PORT'),
+      from: env.MAIL_FROM ?? 'Loambook <no-reply@loambook.example.com>',
+    },
+    logLevel: env.LOG_LEVEL ?? 'info',
+    frontendDist: env.FRONTEND_DIST === '' ? null : (env.FRONTEND_DIST ?? null),
+  };
+}
+
+export const APP_CONFIG = Symbol('APP_CONFIG');

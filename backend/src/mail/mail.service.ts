@@ -1,0 +1,31 @@
+import { Inject, Injectable, Logger } from '@nestjs/common';
+import nodemailer, { type Transporter } from 'nodemailer';
+import { APP_CONFIG, type AppConfig } from '../config/config';
+
+export interface OutgoingMail {
+  to: string;
+  subject: string;
+  text: string;
+  html?: string;
+}
+
+/** Sends mail through SMTP: maildev on loopback in development, an in-process server in tests. */
+@Injectable()
+export class MailService {
+  private readonly logger = new Logger(MailService.name);
+  private readonly transport: Transporter;
+
+  constructor(@Inject(APP_CONFIG) private readonly config: AppConfig) {
+    this.transport = nodemailer.createTransport({
+      host: config.mail.host,
+      port: config.mail.port,
+      secure: false,
+      ignoreTLS: true,
+    });
+  }
+
+  async send(mail: OutgoingMail): Promise<void> {
+    await this.transport.sendMail({ from: this.config.mail.from, ...mail });
+    this.logger.log({ to: mail.to, subject: mail.subject }, 'Mail sent');
+  }
+}

@@ -1,0 +1,7 @@
+import { IsOptional, IsUUID } from 'class-validator';
+
+export class BranchFilterDto {
+  @IsOptional()
+  @IsUUID('all', { message: 'Unknown branch.' })
+  branchId?: string;
+}
