@@ -23,7 +23,8 @@ export class BranchesService {
   ) {}
 
   list(user: SessionUser): Promise<Branch[]> {
-    return this.repo.list(branchScope(user, 'admin'));
+    // The bookkeeper works across branches, like the owner; everyone else sees their own.
+    return this.repo.list(branchScope(user, 'sales'));
   }
 
   async get(user: SessionUser, id: string): Promise<Branch> {

@@ -55,6 +55,7 @@ function oneCallCalendar(pack: StateRulePack, rules: OneCallRulePack): HolidayCa
     accept: (name) => (names.has(name) ? name : null),
     expectedNames: () => [...names],
     addObservedWeekdays: rules.skipObservedWeekday,
+    language: 'en-us', // the names are set as plain strings, so any language returns them
   });
   calendars.set(pack.code, calendar);
   return calendar;

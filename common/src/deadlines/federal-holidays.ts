@@ -4,7 +4,8 @@
 // Election Day, the day after Thanksgiving, Christmas Eve, ...), with types public / bank / optional /
 // observance. We keep the eleven federal ones by name, whatever their type: the package marks the
 // substitute for a Saturday Veterans Day as 'bank', not 'public' (seen for 2028-11-10), so filtering
-// on type would lose it. The names below were checked against the package's output for 2021–2033.
+// on type would lose it. The names below were checked against the package's output (language 'en-us')
+// for 2000–2101. A year in which one of them is missing is an error, not a silent gap.
 import Holidays from 'date-holidays';
 import { IsoDate } from './calendar-date';
 import { HolidayCalendar, HolidayMark } from './holiday-calendar';
@@ -32,6 +33,7 @@ export const federalHolidayCalendar = new HolidayCalendar({
   accept: (name) => (FEDERAL_NAME_SET.has(name) ? name : null),
   expectedNames: (year) => FEDERAL_HOLIDAY_NAMES.filter((name) => name !== 'Juneteenth' || year >= 2021),
   addObservedWeekdays: true,
+  language: 'en-us', // 'en' would name the first Monday in September "Labour Day"
 });
 
 /** Federal holidays (their own dates and their observed weekdays) from `from` to `to`, both included. */

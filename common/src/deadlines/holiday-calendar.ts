@@ -25,6 +25,11 @@ export interface HolidayCalendarSpec {
   expectedNames: (year: number) => readonly string[];
   /** Whether to add the weekday on which a weekend holiday is observed. */
   addObservedWeekdays: boolean;
+  /**
+   * Language of the names, passed to getHolidays. It matters: for 'US', 'en-us' gives "Labor Day" and
+   * 'en' gives "Labour Day".
+   */
+  language: string;
 }
 
 const SUBSTITUTE_SUFFIX = ' (substitute day)';
@@ -44,7 +49,7 @@ export class HolidayCalendar {
     const add = (mark: HolidayMark) => {
       if (!marks.some((m) => m.date === mark.date && m.name === mark.name && m.kind === mark.kind)) marks.push(mark);
     };
-    for (const holiday of this.instance.getHolidays(year, 'en')) {
+    for (const holiday of this.instance.getHolidays(year, this.spec.language)) {
       const isSubstitute = holiday.substitute === true || holiday.name.endsWith(SUBSTITUTE_SUFFIX);
       const baseName = holiday.name.endsWith(SUBSTITUTE_SUFFIX)
         ? holiday.name.slice(0, -SUBSTITUTE_SUFFIX.length)
