@@ -32,7 +32,10 @@ export default tseslint.config(
         'error',
         {
           patterns: [
-            { group: ['node:*', 'fs', 'path', 'knex', 'pg', '@nestjs/*', 'react', 'react-dom'], message: 'common/ is pure: no I/O, no framework.' },
+            {
+              group: ['node:*', 'fs', 'path', 'knex', 'pg', '@nestjs/*', 'react', 'react-dom'],
+              message: 'common/ is pure: no I/O, no framework.',
+            },
           ],
         },
       ],

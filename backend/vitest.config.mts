@@ -4,7 +4,9 @@ import { defineConfig } from 'vitest/config';
 
 // Nest needs decorator metadata, which esbuild does not emit: SWC compiles the tests and the code.
 export default defineConfig({
-  plugins: [swc.vite({ jsc: { transform: { decoratorMetadata: true, legacyDecorator: true }, target: 'es2022' } })],
+  plugins: [
+    swc.vite({ jsc: { transform: { decoratorMetadata: true, legacyDecorator: true }, target: 'es2022' } }),
+  ],
   resolve: {
     alias: { '@loambook/common': path.resolve(__dirname, '../common/src/index.ts') },
   },

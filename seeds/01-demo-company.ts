@@ -47,7 +47,12 @@ export async function seed(knex: Knex): Promise<void> {
       let user = await trx('users').select('id').whereRaw('lower(email) = lower(?)', [a.email]).first();
       if (!user) {
         [user] = await trx('users')
-          .insert({ name: a.name, email: a.email, role: a.role, password_hash: await hashPassword(a.password) })
+          .insert({
+            name: a.name,
+            email: a.email,
+            role: a.role,
+            password_hash: await hashPassword(a.password),
+          })
           .returning('id');
       }
       for (const code of a.branches) {

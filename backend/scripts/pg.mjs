@@ -6,7 +6,9 @@ const cmd = process.argv[2] ?? 'start';
 if (cmd === 'start') {
   await startPostgres();
   await ensureDatabase(pg.database);
-  console.log(`PostgreSQL is up: postgres://${pg.user}@${pg.host}:${pg.port}/${pg.database} (data in ${pg.dataDir})`);
+  console.log(
+    `PostgreSQL is up: postgres://${pg.user}@${pg.host}:${pg.port}/${pg.database} (data in ${pg.dataDir})`,
+  );
 } else if (cmd === 'stop') {
   await stopPostgres();
 } else {

@@ -60,7 +60,9 @@ export async function createApp(config: AppConfig): Promise<NestExpressApplicati
   app.use('/api', express.json({ limit: '1mb' }), bodyParserErrors);
   app.setGlobalPrefix('api');
   app.useGlobalPipes(createValidationPipe());
-  SwaggerModule.setup('api/docs', app, () => openApiDocument(app), { jsonDocumentUrl: 'api/docs/openapi.json' });
+  SwaggerModule.setup('api/docs', app, () => openApiDocument(app), {
+    jsonDocumentUrl: 'api/docs/openapi.json',
+  });
 
   if (config.frontendDist && existsSync(path.join(config.frontendDist, 'index.html'))) {
     const dist = config.frontendDist;

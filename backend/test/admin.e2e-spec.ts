@@ -1,6 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '@loambook/common';
-import { branchInput, makeBranch, makeUser, startTestApp, tokenFor, type TestApp, type TestUser } from './support/test-app';
+import {
+  branchInput,
+  makeBranch,
+  makeUser,
+  startTestApp,
+  tokenFor,
+  type TestApp,
+  type TestUser,
+} from './support/test-app';
 
 describe('admin routes, role by role', () => {
   let t: TestApp;
@@ -33,21 +41,44 @@ describe('admin routes, role by role', () => {
 
   const as = (role: Role) => ({
     get: (url: string) => t.http.get(url).set('Authorization', `Bearer ${tokens[role]}`),
-    post: (url: string, body: object) => t.http.post(url).set('Authorization', `Bearer ${tokens[role]}`).send(body),
-    patch: (url: string, body: object) => t.http.patch(url).set('Authorization', `Bearer ${tokens[role]}`).send(body),
+    post: (url: string, body: object) =>
+      t.http.post(url).set('Authorization', `Bearer ${tokens[role]}`).send(body),
+    patch: (url: string, body: object) =>
+      t.http.patch(url).set('Authorization', `Bearer ${tokens[role]}`).send(body),
     delete: (url: string) => t.http.delete(url).set('Authorization', `Bearer ${tokens[role]}`),
   });
 
   // role × route: the status each role gets. Owner everything; manager reads own branches and manages
   // the sales staff of them; bookkeeper reads branches; salesperson and crew lead read their own.
   const matrix: [string, Record<Role, number>][] = [
-    ['GET /api/branches', { owner: 200, branch_manager: 200, salesperson: 200, bookkeeper: 200, crew_lead: 200 }],
-    ['POST /api/branches', { owner: 201, branch_manager: 403, salesperson: 403, bookkeeper: 403, crew_lead: 403 }],
-    ['PATCH /api/branches/:north', { owner: 200, branch_manager: 403, salesperson: 403, bookkeeper: 403, crew_lead: 403 }],
-    ['DELETE /api/branches/:unused', { owner: 204, branch_manager: 403, salesperson: 403, bookkeeper: 403, crew_lead: 403 }],
-    ['GET /api/users', { owner: 200, branch_manager: 200, salesperson: 200, bookkeeper: 200, crew_lead: 200 }],
-    ['POST /api/users', { owner: 201, branch_manager: 201, salesperson: 403, bookkeeper: 403, crew_lead: 403 }],
-    ['PATCH /api/users/:northSales', { owner: 200, branch_manager: 200, salesperson: 403, bookkeeper: 403, crew_lead: 403 }],
+    [
+      'GET /api/branches',
+      { owner: 200, branch_manager: 200, salesperson: 200, bookkeeper: 200, crew_lead: 200 },
+    ],
+    [
+      'POST /api/branches',
+      { owner: 201, branch_manager: 403, salesperson: 403, bookkeeper: 403, crew_lead: 403 },
+    ],
+    [
+      'PATCH /api/branches/:north',
+      { owner: 200, branch_manager: 403, salesperson: 403, bookkeeper: 403, crew_lead: 403 },
+    ],
+    [
+      'DELETE /api/branches/:unused',
+      { owner: 204, branch_manager: 403, salesperson: 403, bookkeeper: 403, crew_lead: 403 },
+    ],
+    [
+      'GET /api/users',
+      { owner: 200, branch_manager: 200, salesperson: 200, bookkeeper: 200, crew_lead: 200 },
+    ],
+    [
+      'POST /api/users',
+      { owner: 201, branch_manager: 201, salesperson: 403, bookkeeper: 403, crew_lead: 403 },
+    ],
+    [
+      'PATCH /api/users/:northSales',
+      { owner: 200, branch_manager: 200, salesperson: 403, bookkeeper: 403, crew_lead: 403 },
+    ],
   ];
 
   const order: Role[] = ['salesperson', 'bookkeeper', 'crew_lead', 'branch_manager', 'owner'];
@@ -66,11 +97,19 @@ describe('admin routes, role by role', () => {
             ? await r.post(
                 url,
                 url.endsWith('users')
-                  ? { name: 'New Person', email: `new.${role}.${Date.now()}@loambook.test`, role: 'salesperson', branchIds: [north] }
+                  ? {
+                      name: 'New Person',
+                      email: `new.${role}.${Date.now()}@loambook.test`,
+                      role: 'salesperson',
+                      branchIds: [north],
+                    }
                   : branchInput(),
               )
             : method === 'PATCH'
-              ? await r.patch(url, url.includes('users') ? { name: `Renamed by ${role}` } : { name: `North ${role}` })
+              ? await r.patch(
+                  url,
+                  url.includes('users') ? { name: `Renamed by ${role}` } : { name: `North ${role}` },
+                )
               : await r.delete(url);
       expect(res.status, JSON.stringify(res.body)).toBe(expected[role]);
     });
@@ -106,9 +145,17 @@ describe('admin routes, role by role', () => {
 
   it('a manager cannot invite a bookkeeper or another manager, nor into another branch', async () => {
     const base = { name: 'Someone', branchIds: [north] };
-    const bk = await as('branch_manager').post('/api/users', { ...base, email: 'bk.x@loambook.test', role: 'bookkeeper' });
+    const bk = await as('branch_manager').post('/api/users', {
+      ...base,
+      email: 'bk.x@loambook.test',
+      role: 'bookkeeper',
+    });
     expect(bk.status).toBe(403);
-    const mgr = await as('branch_manager').post('/api/users', { ...base, email: 'mg.x@loambook.test', role: 'branch_manager' });
+    const mgr = await as('branch_manager').post('/api/users', {
+      ...base,
+      email: 'mg.x@loambook.test',
+      role: 'branch_manager',
+    });
     expect(mgr.status).toBe(403);
     const other = await as('branch_manager').post('/api/users', {
       ...base,
@@ -118,7 +165,9 @@ describe('admin routes, role by role', () => {
     });
     expect(other.status).toBe(400);
     expect(other.body.details).toEqual([{ field: 'branchIds', message: 'Unknown branch.' }]);
-    expect(await t.db('users').whereRaw('lower(email) = ?', ['other.branch@loambook.test']).first()).toBeUndefined();
+    expect(
+      await t.db('users').whereRaw('lower(email) = ?', ['other.branch@loambook.test']).first(),
+    ).toBeUndefined();
   });
 
   it('a manager cannot promote a salesperson to manager', async () => {
@@ -159,7 +208,10 @@ describe('admin routes, role by role', () => {
   });
 
   it('refuses a manager discount limit below the salesperson’s', async () => {
-    const res = await as('owner').post('/api/branches', branchInput({ discountAuthority: { salesperson: '20', branch_manager: '10' } }));
+    const res = await as('owner').post(
+      '/api/branches',
+      branchInput({ discountAuthority: { salesperson: '20', branch_manager: '10' } }),
+    );
     expect(res.status).toBe(400);
     expect(res.body.details[0].field).toBe('discountAuthority');
   });

@@ -14,7 +14,9 @@ describe('sign-in', () => {
 
   it('signs in with e-mail in any case and returns the token, the user and their rules', async () => {
     const user = await makeUser(t.db, 'salesperson', [branchId]);
-    const res = await t.http.post('/api/auth/login').send({ email: user.email.toUpperCase(), password: PASSWORD });
+    const res = await t.http
+      .post('/api/auth/login')
+      .send({ email: user.email.toUpperCase(), password: PASSWORD });
     expect(res.status).toBe(200);
     expect(res.body.user).toEqual({
       id: user.id,
@@ -37,8 +39,12 @@ describe('sign-in', () => {
 
   it('gives a wrong password and an unknown e-mail the very same 401', async () => {
     const user = await makeUser(t.db, 'owner');
-    const wrong = await t.http.post('/api/auth/login').send({ email: user.email, password: 'not the password' });
-    const unknown = await t.http.post('/api/auth/login').send({ email: 'nobody@loambook.test', password: PASSWORD });
+    const wrong = await t.http
+      .post('/api/auth/login')
+      .send({ email: user.email, password: 'not the password' });
+    const unknown = await t.http
+      .post('/api/auth/login')
+      .send({ email: 'nobody@loambook.test', password: PASSWORD });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     const strip = ({ requestId: _r, ...rest }: Record<string, unknown>) => rest;
@@ -110,13 +116,17 @@ describe('sign-in throttling', () => {
     const user = await makeUser(t.db, 'owner');
     const statuses: number[] = [];
     for (let i = 0; i < 4; i++) {
-      statuses.push((await t.http.post('/api/auth/login').send({ email: user.email, password: `wrong-${i}` })).status);
+      statuses.push(
+        (await t.http.post('/api/auth/login').send({ email: user.email, password: `wrong-${i}` })).status,
+      );
     }
     expect(statuses).toEqual([401, 401, 401, 429]);
     const blocked = await t.http.post('/api/auth/login').send({ email: user.email, password: PASSWORD });
     expect(blocked.status).toBe(429);
     expect(blocked.body.code).toBe('AUTH.TOO_MANY_ATTEMPTS');
     const other = await makeUser(t.db, 'owner');
-    expect((await t.http.post('/api/auth/login').send({ email: other.email, password: PASSWORD })).status).toBe(200);
+    expect(
+      (await t.http.post('/api/auth/login').send({ email: other.email, password: PASSWORD })).status,
+    ).toBe(200);
   });
 });

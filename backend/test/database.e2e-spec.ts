@@ -21,8 +21,8 @@ describe('database invariants', () => {
   });
 
   it('refuses an unknown role and a float-looking percentage beyond range', async () => {
-    await expect(t.db('users').insert({ name: 'X', email: 'x.role@loambook.test', role: 'admin' })).rejects.toThrow(
-      /users_role_check/,
-    );
+    await expect(
+      t.db('users').insert({ name: 'X', email: 'x.role@loambook.test', role: 'admin' }),
+    ).rejects.toThrow(/users_role_check/);
   });
 });

@@ -36,27 +36,40 @@ describe('invitations', () => {
 
     const info = await t.http.get(`/api/auth/password-links/${token}`);
     expect(info.status).toBe(200);
-    expect(info.body).toMatchObject({ email: 'sam.seller@loambook.test', name: 'Sam Seller', purpose: 'invite' });
+    expect(info.body).toMatchObject({
+      email: 'sam.seller@loambook.test',
+      name: 'Sam Seller',
+      purpose: 'invite',
+    });
 
     const short = await t.http.post('/api/auth/password').send({ token, password: 'too short' });
     expect(short.status).toBe(400);
-    expect(short.body.details).toEqual([{ field: 'password', message: expect.stringMatching(/at least 12/) }]);
+    expect(short.body.details).toEqual([
+      { field: 'password', message: expect.stringMatching(/at least 12/) },
+    ]);
 
     const set = await t.http.post('/api/auth/password').send({ token, password: NEW_PASSWORD });
     expect(set.status).toBe(200);
     expect(set.body.user.email).toBe('sam.seller@loambook.test');
-    expect((await t.http.get('/api/auth/me').set('Authorization', `Bearer ${set.body.accessToken}`)).status).toBe(200);
+    expect(
+      (await t.http.get('/api/auth/me').set('Authorization', `Bearer ${set.body.accessToken}`)).status,
+    ).toBe(200);
 
     const again = await t.http.post('/api/auth/password').send({ token, password: 'another long password' });
     expect(again.status).toBe(410);
     expect(again.body.code).toBe('AUTH.LINK_USED');
-    const login = await t.http.post('/api/auth/login').send({ email: 'sam.seller@loambook.test', password: NEW_PASSWORD });
+    const login = await t.http
+      .post('/api/auth/login')
+      .send({ email: 'sam.seller@loambook.test', password: NEW_PASSWORD });
     expect(login.status).toBe(200);
   });
 
   it('refuses an expired link and changes nothing', async () => {
     const { user, token } = await invite('late.larry@loambook.test');
-    await t.db('password_tokens').where({ user_id: user.id }).update({ expires_at: new Date(Date.now() - 1000) });
+    await t
+      .db('password_tokens')
+      .where({ user_id: user.id })
+      .update({ expires_at: new Date(Date.now() - 1000) });
     const info = await t.http.get(`/api/auth/password-links/${token}`);
     expect(info.status).toBe(410);
     expect(info.body.code).toBe('AUTH.LINK_EXPIRED');
@@ -68,7 +81,9 @@ describe('invitations', () => {
 
   it('a resent invitation replaces the earlier link', async () => {
     const { user, token: first } = await invite('twice.tina@loambook.test');
-    const resend = await t.http.post(`/api/users/${user.id}/invitation`).set('Authorization', `Bearer ${ownerToken}`);
+    const resend = await t.http
+      .post(`/api/users/${user.id}/invitation`)
+      .set('Authorization', `Bearer ${ownerToken}`);
     expect(resend.status).toBe(201);
     const mail = await t.mail.lastTo('twice.tina@loambook.test');
     const second = decodeURIComponent(mail.text.match(/token=([\w-]+)/)![1]!);

@@ -39,9 +39,8 @@ describe('every route needs a token except the public ones', () => {
       const key = `${method.toUpperCase()} ${path}`;
       if (PUBLIC_ROUTES.has(key)) continue;
       const url = path.replace(/\{[^}]+\}/g, randomUUID());
-      const res = await (t.http as unknown as Record<string, (u: string) => import('supertest').Test>)
-        [method]!(url)
-        .send({});
+      const call = (t.http as unknown as Record<string, (u: string) => import('supertest').Test>)[method]!;
+      const res = await call(url).send({});
       if (res.status !== 401 || res.body.code !== 'AUTH.REQUIRED') failures.push(`${key} → ${res.status}`);
     }
     expect(failures).toEqual([]);
@@ -49,7 +48,9 @@ describe('every route needs a token except the public ones', () => {
 
   it('answers the public routes without a token', async () => {
     expect((await t.http.get('/api/health')).body).toEqual({ status: 'ok', db: 'up' });
-    expect((await t.http.post('/api/auth/login').send({ email: 'a@b.test', password: 'x' })).status).toBe(401);
+    expect((await t.http.post('/api/auth/login').send({ email: 'a@b.test', password: 'x' })).status).toBe(
+      401,
+    );
     expect((await t.http.get('/api/auth/password-links/' + 'x'.repeat(40))).status).toBe(410);
   });
 

@@ -28,15 +28,30 @@ describe('request validation', () => {
     const res = await post('/api/branches').send({ ...branchInput(), isAdmin: true });
     expect(res.status).toBe(400);
     expect(res.body.code).toBe('VALIDATION.FAILED');
-    expect(res.body.details).toContainEqual({ field: 'isAdmin', message: 'isAdmin is not a field this request takes.' });
+    expect(res.body.details).toContainEqual({
+      field: 'isAdmin',
+      message: 'isAdmin is not a field this request takes.',
+    });
   });
 
   it('lists every missing field, nested ones included', async () => {
     const res = await post('/api/branches').send({ discountAuthority: {} });
     expect(res.status).toBe(400);
     const fields = new Set(res.body.details.map((d: { field: string }) => d.field));
-    for (const f of ['code', 'name', 'addressLine1', 'city', 'state', 'postalCode', 'timezone', 'marginFloorPct',
-      'salesTaxTreatment', 'salesTaxRatePct', 'discountAuthority.salesperson', 'discountAuthority.branch_manager']) {
+    for (const f of [
+      'code',
+      'name',
+      'addressLine1',
+      'city',
+      'state',
+      'postalCode',
+      'timezone',
+      'marginFloorPct',
+      'salesTaxTreatment',
+      'salesTaxRatePct',
+      'discountAuthority.salesperson',
+      'discountAuthority.branch_manager',
+    ]) {
       expect(fields, f).toContain(f);
     }
   });

@@ -1,6 +1,13 @@
 export const REPO: string;
 export const STATE_DIR: string;
-export const pg: { host: string; port: number; user: string; password: string; database: string; dataDir: string };
+export const pg: {
+  host: string;
+  port: number;
+  user: string;
+  password: string;
+  database: string;
+  dataDir: string;
+};
 export const mail: { smtpPort: number; webPort: number };
 export const app: { port: number };
 export function log(message: string): void;

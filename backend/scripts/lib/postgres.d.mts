@@ -1,5 +1,6 @@
 export function ensureInstalled(): string;
-export function startPostgres(): Promise<string>;
+/** `started` is false when the cluster was already running. */
+export function startPostgres(): Promise<{ bin: string; started: boolean }>;
 export function stopPostgres(): Promise<void>;
 export function ensureDatabase(name: string): Promise<void>;
 export function dropDatabase(name: string): Promise<void>;

@@ -21,7 +21,8 @@ export function ensureInstalled() {
   if (!bin) {
     aptInstall(['postgresql'], 'PostgreSQL is not installed.');
     bin = findBinDir();
-    if (!bin) throw new Error('PostgreSQL was installed but its programs were not found under /usr/lib/postgresql');
+    if (!bin)
+      throw new Error('PostgreSQL was installed but its programs were not found under /usr/lib/postgresql');
   }
   return bin;
 }
@@ -29,9 +30,7 @@ export function ensureInstalled() {
 /** As root, PostgreSQL's programs run as the postgres user (initdb refuses root). */
 function asOwner(bin, program, args, options = {}) {
   const exe = path.join(bin, program);
-  return isRoot()
-    ? run('runuser', ['-u', 'postgres', '--', exe, ...args], options)
-    : run(exe, args, options);
+  return isRoot() ? run('runuser', ['-u', 'postgres', '--', exe, ...args], options) : run(exe, args, options);
 }
 
 function ensureCluster(bin) {
@@ -48,12 +47,18 @@ function ensureCluster(bin) {
   }
   try {
     asOwner(bin, 'initdb', [
-      '-D', pg.dataDir,
-      '-U', pg.user,
-      '--pwfile', pwfile,
-      '--auth', 'scram-sha-256',
-      '--encoding', 'UTF8',
-      '--locale', 'C',
+      '-D',
+      pg.dataDir,
+      '-U',
+      pg.user,
+      '--pwfile',
+      pwfile,
+      '--auth',
+      'scram-sha-256',
+      '--encoding',
+      'UTF8',
+      '--locale',
+      'C',
     ]);
   } finally {
     rmSync(pwfile, { force: true });
@@ -93,20 +98,25 @@ function clearStalePidFile() {
 export async function startPostgres() {
   const bin = ensureInstalled();
   ensureCluster(bin);
-  if (!isRunning(bin)) {
+  const started = !isRunning(bin);
+  if (started) {
     clearStalePidFile();
     log(`Starting PostgreSQL on 127.0.0.1:${pg.port}`);
     asOwner(bin, 'pg_ctl', [
       'start',
-      '-D', pg.dataDir,
-      '-l', path.join(pg.dataDir, 'server.log'),
+      '-D',
+      pg.dataDir,
+      '-l',
+      path.join(pg.dataDir, 'server.log'),
       '-w',
-      '-t', '60',
-      '-o', `-c listen_addresses=127.0.0.1 -p ${pg.port} -c unix_socket_directories='' -c fsync=${process.env.CI ? 'off' : 'on'}`,
+      '-t',
+      '60',
+      '-o',
+      `-c listen_addresses=127.0.0.1 -p ${pg.port} -c unix_socket_directories='' -c fsync=${process.env.CI ? 'off' : 'on'}`,
     ]);
   }
   await waitForConnection();
-  return bin;
+  return { bin, started };
 }
 
 export async function stopPostgres() {

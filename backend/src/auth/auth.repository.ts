@@ -90,6 +90,10 @@ export class AuthRepository {
   async setPassword(userId: string, passwordHash: string, db: Db): Promise<void> {
     await db('users')
       .where({ id: userId })
-      .update({ password_hash: passwordHash, token_version: db.raw('token_version + 1'), updated_at: db.fn.now() });
+      .update({
+        password_hash: passwordHash,
+        token_version: db.raw('token_version + 1'),
+        updated_at: db.fn.now(),
+      });
   }
 }

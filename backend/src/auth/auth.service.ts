@@ -26,7 +26,11 @@ export interface TokenPayload {
 }
 
 const INVALID_CREDENTIALS = () =>
-  new DomainError('unauthorized', 'AUTH.INVALID_CREDENTIALS', 'That e-mail and password do not match an active account.');
+  new DomainError(
+    'unauthorized',
+    'AUTH.INVALID_CREDENTIALS',
+    'That e-mail and password do not match an active account.',
+  );
 
 const sha256 = (token: string) => createHash('sha256').update(token).digest('hex');
 
@@ -79,7 +83,12 @@ export class AuthService {
 
   async passwordTokenInfo(token: string): Promise<PasswordTokenInfo> {
     const { row, user } = await this.usableToken(token, this.knex);
-    return { email: user.email, name: user.name, purpose: row.purpose, expiresAt: row.expiresAt.toISOString() };
+    return {
+      email: user.email,
+      name: user.name,
+      purpose: row.purpose,
+      expiresAt: row.expiresAt.toISOString(),
+    };
   }
 
   async setPassword(token: string, password: string): Promise<SessionResponse> {
@@ -87,7 +96,9 @@ export class AuthService {
       const { row, user } = await this.usableToken(token, trx);
       const problem = passwordProblem(password, { email: user.email });
       if (problem) {
-        throw new DomainError('invalid', 'VALIDATION.FAILED', problem, [{ field: 'password', message: problem }]);
+        throw new DomainError('invalid', 'VALIDATION.FAILED', problem, [
+          { field: 'password', message: problem },
+        ]);
       }
       if (!(await this.repo.consumePasswordToken(row.id, trx))) throw linkUnusable('AUTH.LINK_USED');
       await this.repo.setPassword(user.id, await hashPassword(password), trx);

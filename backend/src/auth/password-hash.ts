@@ -10,7 +10,9 @@ const KEY_LENGTH = 32;
 
 function scryptAsync(password: string, salt: Buffer, options: ScryptOptions): Promise<Buffer> {
   return new Promise((resolve, reject) =>
-    scrypt(password.normalize('NFKC'), salt, KEY_LENGTH, options, (err, key) => (err ? reject(err) : resolve(key))),
+    scrypt(password.normalize('NFKC'), salt, KEY_LENGTH, options, (err, key) =>
+      err ? reject(err) : resolve(key),
+    ),
   );
 }
 

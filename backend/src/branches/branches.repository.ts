@@ -100,7 +100,9 @@ export class BranchesRepository {
   }
 
   async idsByCodes(codes: string[], db: Db = this.knex): Promise<Map<string, string>> {
-    const rows: { id: string; code: string }[] = await db('branches').select('id', 'code').whereIn('code', codes);
+    const rows: { id: string; code: string }[] = await db('branches')
+      .select('id', 'code')
+      .whereIn('code', codes);
     return new Map(rows.map((r) => [r.code, r.id]));
   }
 

@@ -39,9 +39,12 @@ export class BranchesService {
     this.checkRules(input);
     return inTransaction(this.knex, async (trx) => {
       if (await this.repo.findByCode(input.code, trx)) {
-        throw new DomainError('conflict', 'BRANCH.CODE_TAKEN', `Another branch already uses the code ${input.code}.`, [
-          { field: 'code', message: 'This code is taken.' },
-        ]);
+        throw new DomainError(
+          'conflict',
+          'BRANCH.CODE_TAKEN',
+          `Another branch already uses the code ${input.code}.`,
+          [{ field: 'code', message: 'This code is taken.' }],
+        );
       }
       const id = await this.repo.insert(input, trx);
       return (await this.repo.findById(id, trx))!;
@@ -54,9 +57,12 @@ export class BranchesService {
     this.checkRules({ ...current, ...input });
     return inTransaction(this.knex, async (trx) => {
       if (input.code && input.code !== current.code && (await this.repo.findByCode(input.code, trx))) {
-        throw new DomainError('conflict', 'BRANCH.CODE_TAKEN', `Another branch already uses the code ${input.code}.`, [
-          { field: 'code', message: 'This code is taken.' },
-        ]);
+        throw new DomainError(
+          'conflict',
+          'BRANCH.CODE_TAKEN',
+          `Another branch already uses the code ${input.code}.`,
+          [{ field: 'code', message: 'This code is taken.' }],
+        );
       }
       await this.repo.update(id, input, trx);
       return (await this.repo.findById(id, trx))!;

@@ -4,7 +4,8 @@ import type { FieldError } from '@loambook/common';
  * A rule the request broke, with a stable code. The exception filter maps the kind to an HTTP status;
  * services never think in status codes.
  */
-export type DomainErrorKind = 'not_found' | 'conflict' | 'rule' | 'forbidden' | 'invalid' | 'unauthorized' | 'gone';
+export type DomainErrorKind =
+  'not_found' | 'conflict' | 'rule' | 'forbidden' | 'invalid' | 'unauthorized' | 'gone';
 
 export class DomainError extends Error {
   constructor(

@@ -63,7 +63,11 @@ export class AllExceptionsFilter implements ExceptionFilter {
     }
     return [
       HttpStatus.INTERNAL_SERVER_ERROR,
-      { code: 'INTERNAL', message: 'Something went wrong on our side. Quote the request id if you call.', details: null },
+      {
+        code: 'INTERNAL',
+        message: 'Something went wrong on our side. Quote the request id if you call.',
+        details: null,
+      },
     ];
   }
 }
@@ -72,12 +76,19 @@ export class AllExceptionsFilter implements ExceptionFilter {
  * Express error middleware for body-parser failures, which happen before Nest sees the request:
  * answers them in the same shape as everything else.
  */
-export function bodyParserErrors(err: unknown, req: Request & { id?: string }, res: Response, next: NextFunction) {
+export function bodyParserErrors(
+  err: unknown,
+  req: Request & { id?: string },
+  res: Response,
+  next: NextFunction,
+) {
   const raw = err as { status?: number; type?: string };
   if (typeof raw?.status !== 'number' || typeof raw.type !== 'string') return next(err);
   const [code, message] =
     raw.type === 'entity.parse.failed'
       ? ['REQUEST.MALFORMED_JSON', 'The request body is not valid JSON.']
       : (CODE_FOR_STATUS[raw.status] ?? ['REQUEST.INVALID', 'The request could not be read.']);
-  res.status(raw.status).json({ code, message, details: null, requestId: String(req.id ?? '') } satisfies ApiErrorBody);
+  res
+    .status(raw.status)
+    .json({ code, message, details: null, requestId: String(req.id ?? '') } satisfies ApiErrorBody);
 }

@@ -7,7 +7,10 @@ function flatten(errors: ValidationError[], prefix = ''): FieldError[] {
     const field = prefix ? `${prefix}.${e.property}` : e.property;
     const own = Object.values(e.constraints ?? {}).map((message) => ({
       field,
-      message: e.constraints?.whitelistValidation === message ? `${field} is not a field this request takes.` : message,
+      message:
+        e.constraints?.whitelistValidation === message
+          ? `${field} is not a field this request takes.`
+          : message,
     }));
     return [...own, ...flatten(e.children ?? [], field)];
   });

@@ -26,7 +26,8 @@ function int(value: string | undefined, fallback: number, name: string): number 
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   const port = int(env.PORT, 3000, 'PORT');
   const host = env.HOST ?? '127.0.0.1';
-  const secret = env.JWT_SECRET ?? (env.NODE_ENV === 'production' ? '' : 'loambook-development-secret-change-me');
+  const secret =
+    env.JWT_SECRET ?? (env.NODE_ENV === 'production' ? '' : 'loambook-development-secret-change-me');
   if (secret.length < 16) throw new Error('JWT_SECRET must be set to at least 16 characters in production');
   return {
     port,

@@ -2,7 +2,13 @@
 const escape = (s: string) =>
   s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
-export function invitationMail(p: { name: string; invitedBy: string; roleLabel: string; link: string; hours: number }) {
+export function invitationMail(p: {
+  name: string;
+  invitedBy: string;
+  roleLabel: string;
+  link: string;
+  hours: number;
+}) {
   const text = [
     `Hello ${p.name},`,
     '',

@@ -44,7 +44,10 @@ export class UsersController {
 
   @Post(':id/invitation')
   @Can('update', 'User')
-  resendInvitation(@CurrentUser() user: SessionUser, @Param('id', ParseUUIDPipe) id: string): Promise<UserSummary> {
+  resendInvitation(
+    @CurrentUser() user: SessionUser,
+    @Param('id', ParseUUIDPipe) id: string,
+  ): Promise<UserSummary> {
     return this.users.resendInvitation(user, id);
   }
 }

@@ -52,13 +52,19 @@ export class UsersRepository {
    * `scope` null: everyone. Otherwise people who belong to at least one of those branches — a manager's
    * view of their own branches' staff.
    */
-  async list(scope: string[] | null, filter: { branchId?: string }, db: Db = this.knex): Promise<UserSummary[]> {
+  async list(
+    scope: string[] | null,
+    filter: { branchId?: string },
+    db: Db = this.knex,
+  ): Promise<UserSummary[]> {
     const q = this.base(db).orderBy('u.name');
     if (scope) {
       q.whereExists(db('user_branches as s').whereRaw('s.user_id = u.id').whereIn('s.branch_id', scope));
     }
     if (filter.branchId) {
-      q.whereExists(db('user_branches as f').whereRaw('f.user_id = u.id').where('f.branch_id', filter.branchId));
+      q.whereExists(
+        db('user_branches as f').whereRaw('f.user_id = u.id').where('f.branch_id', filter.branchId),
+      );
     }
     return (await q).map(toSummary);
   }
@@ -72,7 +78,10 @@ export class UsersRepository {
     return !!(await db('users').select('id').whereRaw('lower(email) = lower(?)', [email]).first());
   }
 
-  async insert(u: { name: string; email: string; role: Role; invitedBy: string | null }, db: Db): Promise<string> {
+  async insert(
+    u: { name: string; email: string; role: Role; invitedBy: string | null },
+    db: Db,
+  ): Promise<string> {
     const [row] = await db('users')
       .insert({ name: u.name, email: u.email, role: u.role, invited_by: u.invitedBy })
       .returning('id');
@@ -85,7 +94,8 @@ export class UsersRepository {
     if (patch.role !== undefined) row.role = patch.role;
     if (patch.active !== undefined) row.active = patch.active;
     // Changing someone's role or access ends their open sessions, so the new rules apply at once.
-    if (patch.role !== undefined || patch.active !== undefined) row.token_version = db.raw('token_version + 1');
+    if (patch.role !== undefined || patch.active !== undefined)
+      row.token_version = db.raw('token_version + 1');
     await db('users').where({ id }).update(row);
   }
 
@@ -94,7 +104,9 @@ export class UsersRepository {
     if (branchIds.length) {
       await db('user_branches').insert(branchIds.map((branch_id) => ({ user_id: userId, branch_id })));
     }
-    await db('users').where({ id: userId }).update({ token_version: db.raw('token_version + 1') });
+    await db('users')
+      .where({ id: userId })
+      .update({ token_version: db.raw('token_version + 1') });
   }
 
   async countActiveOwners(db: Db = this.knex): Promise<number> {

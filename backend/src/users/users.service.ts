@@ -25,7 +25,9 @@ import { UsersRepository } from './users.repository';
 const BRANCH_ROLES: readonly Role[] = ['branch_manager', 'salesperson', 'crew_lead'];
 
 const fieldError = (code: string, field: string, message: string) =>
-  new DomainError(code.startsWith('VALIDATION') ? 'invalid' : 'conflict', code, message, [{ field, message }]);
+  new DomainError(code.startsWith('VALIDATION') ? 'invalid' : 'conflict', code, message, [
+    { field, message },
+  ]);
 
 @Injectable()
 export class UsersService {
@@ -75,7 +77,8 @@ export class UsersService {
       if (!target.invitationPending) {
         throw conflict('USER.ALREADY_ACTIVE', 'This person has already set a password.');
       }
-      if (!target.active) throw conflict('USER.INACTIVE', 'Reactivate this person before inviting them again.');
+      if (!target.active)
+        throw conflict('USER.INACTIVE', 'Reactivate this person before inviting them again.');
       await this.sendInvitation(user, target, trx);
       return target;
     });
@@ -94,7 +97,8 @@ export class UsersService {
       if (patch.active === false && target.id === user.id) {
         throw conflict('USER.DEACTIVATE_SELF', 'You cannot deactivate your own account.');
       }
-      const losesOwner = target.role === 'owner' && target.active && (patch.active === false || role !== 'owner');
+      const losesOwner =
+        target.role === 'owner' && target.active && (patch.active === false || role !== 'owner');
       if (losesOwner && (await this.repo.countActiveOwners(trx)) <= 1) {
         throw conflict('USER.LAST_OWNER', 'The company needs at least one active owner.');
       }
@@ -124,10 +128,16 @@ export class UsersService {
   private async checkBranches(user: SessionUser, role: Role, branchIds: string[], db: Db, ownOnly = true) {
     const existing = await this.branches.existingIds(branchIds, db);
     const scope = branchScope(user, 'admin');
-    const unknown = branchIds.filter((b) => !existing.includes(b) || (ownOnly && scope && !scope.includes(b)));
+    const unknown = branchIds.filter(
+      (b) => !existing.includes(b) || (ownOnly && scope && !scope.includes(b)),
+    );
     if (unknown.length) throw fieldError('VALIDATION.FAILED', 'branchIds', 'Unknown branch.');
     if (BRANCH_ROLES.includes(role) && branchIds.length === 0) {
-      throw fieldError('VALIDATION.FAILED', 'branchIds', `A ${ROLE_LABELS[role].toLowerCase()} needs at least one branch.`);
+      throw fieldError(
+        'VALIDATION.FAILED',
+        'branchIds',
+        `A ${ROLE_LABELS[role].toLowerCase()} needs at least one branch.`,
+      );
     }
   }
 

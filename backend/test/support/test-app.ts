@@ -60,7 +60,9 @@ const unique = () => randomBytes(4).toString('hex');
 export function uniqueCode(): string {
   const letters = 'ABCDEFGHJKLMNPQRSTUVWXYZ';
   const bytes = randomBytes(7);
-  return Array.from(bytes, (b, i) => (i < 2 ? letters[b % letters.length] : (b % 36).toString(36).toUpperCase())).join('');
+  return Array.from(bytes, (b, i) =>
+    i < 2 ? letters[b % letters.length] : (b % 36).toString(36).toUpperCase(),
+  ).join('');
 }
 
 export function branchInput(overrides: Record<string, unknown> = {}) {
@@ -125,12 +127,14 @@ export async function makeUser(
       password_hash: password === null ? null : await hashPassword(password),
     })
     .returning('id');
-  for (const branchId of branchIds) await db('user_branches').insert({ user_id: row.id, branch_id: branchId });
+  for (const branchId of branchIds)
+    await db('user_branches').insert({ user_id: row.id, branch_id: branchId });
   return { id: row.id, email, role, branchIds };
 }
 
 export async function tokenFor(t: TestApp, user: { email: string }, password = PASSWORD): Promise<string> {
   const res = await t.http.post('/api/auth/login').send({ email: user.email, password });
-  if (res.status !== 200) throw new Error(`login failed for ${user.email}: ${res.status} ${JSON.stringify(res.body)}`);
+  if (res.status !== 200)
+    throw new Error(`login failed for ${user.email}: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body.accessToken;
 }

@@ -25,9 +25,7 @@ export interface StrictDecimalOptions {
   maxIntegerDigits?: number;
 }
 
-export type StrictDecimalResult =
-  | { ok: true; value: CalcDecimalValue }
-  | { ok: false; message: string };
+export type StrictDecimalResult = { ok: true; value: CalcDecimalValue } | { ok: false; message: string };
 
 const STRICT_DECIMAL = /^(-?)(\d+)(?:\.(\d+))?$/;
 

@@ -92,7 +92,9 @@ describe('helicalCapacity', () => {
           const required = helicalCapacity({ shaft, designLoadLb }).requiredTorqueFtLb ?? '';
           const at = helicalCapacity({ shaft, torqueFtLb: required, designLoadLb }).meetsDesignLoad;
           const below = new Decimal(required).minus(1);
-          const under = below.lte(0) || !helicalCapacity({ shaft, torqueFtLb: below.toFixed(), designLoadLb }).meetsDesignLoad;
+          const under =
+            below.lte(0) ||
+            !helicalCapacity({ shaft, torqueFtLb: below.toFixed(), designLoadLb }).meetsDesignLoad;
           return at === true && under;
         },
       ),

@@ -92,7 +92,7 @@ export function helicalCapacity(input: HelicalCapacityInput): HelicalCapacityRes
     factorOfSafety: HELICAL_FACTOR_OF_SAFETY,
     sources: [...HELICAL_SOURCES],
     cautions: [
-      'Torque correlation gives a screening figure; load tests, the manufacturer\'s evaluation report and the engineer of ' +
+      "Torque correlation gives a screening figure; load tests, the manufacturer's evaluation report and the engineer of " +
         'record govern the capacity used in design.',
       CAUTION_CALL_811,
       CAUTION_ENGINEER,

@@ -1,11 +1,7 @@
 // Scope calculators: pure functions, decimal strings in and out. See each file for its sources.
 export { CalculatorInputError, StatePackMissingError } from './errors';
 export type { CalculatorIssue } from './errors';
-export {
-  CalcDecimal,
-  parseStrictDecimal,
-  formatCalcDecimal,
-} from './decimal';
+export { CalcDecimal, parseStrictDecimal, formatCalcDecimal } from './decimal';
 export type { CalcDecimalValue, StrictDecimalOptions, StrictDecimalResult } from './decimal';
 export { CAUTION_CALL_811, CAUTION_ISOCYANATES, CAUTION_LIFTING, CAUTION_ENGINEER } from './cautions';
 export { MAX_POINTS_PER_RUN } from './point-count';

@@ -17,17 +17,20 @@ describe('injectionPlan', () => {
     ['3', true, 1, '20', 1, null],
     ['250', false, 51, '1020', 2, '0'], // 1020 lb needs a second drum set
     ['245', false, 50, '1000', 1, '0'], // exactly one drum set
-  ])('run %s ft, closed %s → %i points, %s lb, %i drum sets', (runLengthFt, closed, points, totalLb, drumSets, endGapFt) => {
-    const plan = injectionPlan({ runLengthFt, closed });
-    expect(plan.points).toBe(points);
-    expect(plan.totalLb).toBe(totalLb);
-    expect(plan.drumSets).toBe(drumSets);
-    expect(plan.endGapFt).toBe(endGapFt);
-    expect(plan.spacingFt).toBe('5');
-    expect(plan.depthFt).toBe('5');
-    expect(plan.lbPerPoint).toBe('20');
-    expect(plan.lbPerDrumSet).toBe('1000');
-  });
+  ])(
+    'run %s ft, closed %s → %i points, %s lb, %i drum sets',
+    (runLengthFt, closed, points, totalLb, drumSets, endGapFt) => {
+      const plan = injectionPlan({ runLengthFt, closed });
+      expect(plan.points).toBe(points);
+      expect(plan.totalLb).toBe(totalLb);
+      expect(plan.drumSets).toBe(drumSets);
+      expect(plan.endGapFt).toBe(endGapFt);
+      expect(plan.spacingFt).toBe('5');
+      expect(plan.depthFt).toBe('5');
+      expect(plan.lbPerPoint).toBe('20');
+      expect(plan.lbPerDrumSet).toBe('1000');
+    },
+  );
 
   it('uses the given spacing, depth, material and drum-set size', () => {
     const plan = injectionPlan({
@@ -88,7 +91,11 @@ describe('injectionPlan', () => {
       injectionPlan({ runLengthFt: 'x', spacingFt: '-1', lbPerPoint: '0' });
       expect.unreachable();
     } catch (error) {
-      expect((error as CalculatorInputError).details.map((d) => d.field)).toEqual(['runLengthFt', 'spacingFt', 'lbPerPoint']);
+      expect((error as CalculatorInputError).details.map((d) => d.field)).toEqual([
+        'runLengthFt',
+        'spacingFt',
+        'lbPerPoint',
+      ]);
     }
   });
 
@@ -110,14 +117,22 @@ describe('injectionPlan', () => {
   it('totalLb is exactly points × lbPerPoint, and the drum sets hold it with less than one set spare', () => {
     const lbPerPoint = fc.integer({ min: 1, max: 100_000 }).map((n) => new Decimal(n).div(100).toFixed());
     fc.assert(
-      fc.property(lengthTenths, spacingTenths, lbPerPoint, fc.boolean(), (runLengthFt, spacingFt, lb, closed) => {
-        const plan = injectionPlan({ runLengthFt, spacingFt, lbPerPoint: lb, closed });
-        const total = new Decimal(plan.totalLb);
-        const held = new Decimal(plan.drumSets).mul(plan.lbPerDrumSet);
-        return (
-          total.eq(new Decimal(lb).mul(plan.points)) && held.gte(total) && held.minus(plan.lbPerDrumSet).lt(total)
-        );
-      }),
+      fc.property(
+        lengthTenths,
+        spacingTenths,
+        lbPerPoint,
+        fc.boolean(),
+        (runLengthFt, spacingFt, lb, closed) => {
+          const plan = injectionPlan({ runLengthFt, spacingFt, lbPerPoint: lb, closed });
+          const total = new Decimal(plan.totalLb);
+          const held = new Decimal(plan.drumSets).mul(plan.lbPerDrumSet);
+          return (
+            total.eq(new Decimal(lb).mul(plan.points)) &&
+            held.gte(total) &&
+            held.minus(plan.lbPerDrumSet).lt(total)
+          );
+        },
+      ),
     );
   });
 

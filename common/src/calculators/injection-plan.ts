@@ -68,17 +68,32 @@ export function injectionPlan(input: InjectionPlanInput): InjectionPlanResult {
     maxDecimals: 4,
     max: { value: '200', why: 'check the units: the depth is in feet' },
   });
-  const lbPerPoint = v.decimalOr('lbPerPoint', 'Material per point (lb)', fields.lbPerPoint, DEFAULT_LB_PER_POINT, {
-    positive: true,
-    maxDecimals: 4,
-  });
-  const lbPerDrumSet = v.decimalOr('lbPerDrumSet', 'Material per drum set (lb)', fields.lbPerDrumSet, DEFAULT_LB_PER_DRUM_SET, {
-    positive: true,
-    maxDecimals: 4,
-  });
+  const lbPerPoint = v.decimalOr(
+    'lbPerPoint',
+    'Material per point (lb)',
+    fields.lbPerPoint,
+    DEFAULT_LB_PER_POINT,
+    {
+      positive: true,
+      maxDecimals: 4,
+    },
+  );
+  const lbPerDrumSet = v.decimalOr(
+    'lbPerDrumSet',
+    'Material per drum set (lb)',
+    fields.lbPerDrumSet,
+    DEFAULT_LB_PER_DRUM_SET,
+    {
+      positive: true,
+      maxDecimals: 4,
+    },
+  );
   const closed = v.booleanOr('closed', 'Closed perimeter', fields.closed, false);
   if (length && spacing && pointCountWouldExceed(length, spacing, MAX_POINTS_PER_RUN)) {
-    v.add('spacingFt', `This run would need more than ${MAX_POINTS_PER_RUN} points: check that both lengths are in feet.`);
+    v.add(
+      'spacingFt',
+      `This run would need more than ${MAX_POINTS_PER_RUN} points: check that both lengths are in feet.`,
+    );
   }
   v.throwIfAny();
   // All defined after throwIfAny; the checks satisfy the compiler.
@@ -93,7 +108,7 @@ export function injectionPlan(input: InjectionPlanInput): InjectionPlanResult {
   if (fields.lbPerPoint === undefined) assumptions.push('20 lb of material per point (common practice).');
   if (fields.lbPerDrumSet === undefined) {
     assumptions.push(
-      '1000 lb of material per drum set (pair of 55-gallon drums): our assumption, not a published figure; use the supplier\'s figure.',
+      "1000 lb of material per drum set (pair of 55-gallon drums): our assumption, not a published figure; use the supplier's figure.",
     );
   }
   assumptions.push(

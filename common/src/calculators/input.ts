@@ -17,7 +17,12 @@ export class InputCollector {
   }
 
   /** A required decimal string. Returns undefined (after recording the problem) when invalid. */
-  decimal(field: string, label: string, value: unknown, options: DecimalFieldOptions = {}): CalcDecimalValue | undefined {
+  decimal(
+    field: string,
+    label: string,
+    value: unknown,
+    options: DecimalFieldOptions = {},
+  ): CalcDecimalValue | undefined {
     if (value === undefined || value === null) {
       this.add(field, `${label} is required.`);
       return undefined;
@@ -50,7 +55,12 @@ export class InputCollector {
   }
 
   /** An optional decimal string; undefined stays undefined. */
-  optionalDecimal(field: string, label: string, value: unknown, options: DecimalFieldOptions = {}): CalcDecimalValue | undefined {
+  optionalDecimal(
+    field: string,
+    label: string,
+    value: unknown,
+    options: DecimalFieldOptions = {},
+  ): CalcDecimalValue | undefined {
     return value === undefined ? undefined : this.decimal(field, label, value, options);
   }
 
@@ -71,7 +81,9 @@ export class InputCollector {
 /** Refuse anything that is not a plain object, before reading its fields. */
 export function requireInputObject(input: unknown, what: string): Record<string, unknown> {
   if (typeof input !== 'object' || input === null || Array.isArray(input)) {
-    throw new CalculatorInputError([{ field: '(input)', message: `${what} needs an object of named fields.` }]);
+    throw new CalculatorInputError([
+      { field: '(input)', message: `${what} needs an object of named fields.` },
+    ]);
   }
   return input as Record<string, unknown>;
 }

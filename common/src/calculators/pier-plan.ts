@@ -29,11 +29,20 @@ export interface PierPlanResult {
 export function pierPlan(input: PierPlanInput): PierPlanResult {
   const fields = requireInputObject(input, 'The pier plan');
   const v = new InputCollector();
-  const length = v.decimal('runLengthFt', 'Run length (ft)', fields.runLengthFt, { positive: true, maxDecimals: 4 });
-  const spacing = v.decimal('spacingFt', 'Pier spacing (ft)', fields.spacingFt, { positive: true, maxDecimals: 4 });
+  const length = v.decimal('runLengthFt', 'Run length (ft)', fields.runLengthFt, {
+    positive: true,
+    maxDecimals: 4,
+  });
+  const spacing = v.decimal('spacingFt', 'Pier spacing (ft)', fields.spacingFt, {
+    positive: true,
+    maxDecimals: 4,
+  });
   const closed = v.booleanOr('closed', 'Closed perimeter', fields.closed, false);
   if (length && spacing && pointCountWouldExceed(length, spacing, MAX_POINTS_PER_RUN)) {
-    v.add('spacingFt', `This run would need more than ${MAX_POINTS_PER_RUN} piers: check that both lengths are in feet.`);
+    v.add(
+      'spacingFt',
+      `This run would need more than ${MAX_POINTS_PER_RUN} piers: check that both lengths are in feet.`,
+    );
   }
   v.throwIfAny();
   if (!length || !spacing) throw new Error('unreachable');

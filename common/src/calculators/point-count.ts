@@ -17,7 +17,11 @@ export interface PointCount {
   endGap: CalcDecimalValue | null;
 }
 
-export function countPointsAlongRun(length: CalcDecimalValue, spacing: CalcDecimalValue, closed: boolean): PointCount {
+export function countPointsAlongRun(
+  length: CalcDecimalValue,
+  spacing: CalcDecimalValue,
+  closed: boolean,
+): PointCount {
   if (closed) {
     return { count: ceilDivide(length, spacing).toNumber(), endGap: null };
   }
@@ -26,6 +30,10 @@ export function countPointsAlongRun(length: CalcDecimalValue, spacing: CalcDecim
 }
 
 /** The count without building it, to refuse absurd inputs before any work. */
-export function pointCountWouldExceed(length: CalcDecimalValue, spacing: CalcDecimalValue, limit: number): boolean {
+export function pointCountWouldExceed(
+  length: CalcDecimalValue,
+  spacing: CalcDecimalValue,
+  limit: number,
+): boolean {
   return length.div(spacing).gt(limit);
 }

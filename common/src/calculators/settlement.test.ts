@@ -49,7 +49,12 @@ describe('settlement: angular distortion and bands', () => {
 
   it('reports the highest and lowest points and the largest difference', () => {
     const result = settlement({
-      points: [pt('NE', '0', '0', '0.5'), pt('NW', '20', '0', '-0.75'), pt('SW', '20', '20', '0'), pt('SE', '0', '20', '0.25')],
+      points: [
+        pt('NE', '0', '0', '0.5'),
+        pt('NW', '20', '0', '-0.75'),
+        pt('SW', '20', '20', '0'),
+        pt('SE', '0', '20', '0.25'),
+      ],
     });
     expect(result.highest).toEqual({ label: 'NE', elevationIn: '0.5' });
     expect(result.lowest).toEqual({ label: 'NW', elevationIn: '-0.75' });
@@ -73,13 +78,16 @@ describe('settlement: angular distortion and bands', () => {
 
 describe('settlement: which pairs are compared', () => {
   it('on a line of three points 10 ft apart, compares neighbours and not the two ends', () => {
-    const result = settlement({ points: [pt('A', '0', '0', '0'), pt('B', '10', '0', '-0.2'), pt('C', '20', '0', '-0.4')] });
+    const result = settlement({
+      points: [pt('A', '0', '0', '0'), pt('B', '10', '0', '-0.2'), pt('C', '20', '0', '-0.4')],
+    });
     expect(result.pairs.map((p) => `${p.a}-${p.b}`).sort()).toEqual(['A-B', 'B-C']);
   });
 
   it('on a square grid, compares the sides and the diagonals of each cell (14.14 ft ≤ 1.5 × 10 ft), not two cells away', () => {
     const points: SettlementPointInput[] = [];
-    for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) points.push(pt(`${i}${j}`, `${i * 10}`, `${j * 10}`, '0'));
+    for (let i = 0; i < 3; i++)
+      for (let j = 0; j < 3; j++) points.push(pt(`${i}${j}`, `${i * 10}`, `${j * 10}`, '0'));
     const result = settlement({ points });
     // 12 sides + 8 diagonals in a 3 × 3 grid of points
     expect(result.pairs).toHaveLength(20);
@@ -89,13 +97,19 @@ describe('settlement: which pairs are compared', () => {
 
   it('a far-off point is compared with its nearest neighbour and anything within 1.5 times that distance', () => {
     // C's nearest is B at 55 ft; A at 60 ft is within 1.5 × 55 = 82.5 ft, so A-C is compared too.
-    const result = settlement({ points: [pt('A', '0', '0', '0'), pt('B', '5', '0', '0'), pt('C', '60', '0', '-1')] });
+    const result = settlement({
+      points: [pt('A', '0', '0', '0'), pt('B', '5', '0', '0'), pt('C', '60', '0', '-1')],
+    });
     expect(result.pairs.map((p) => `${p.a}-${p.b}`).sort()).toEqual(['A-B', 'A-C', 'B-C']);
     // C at 14 ft: nearest is B at 9 ft, and A at 14 ft is beyond 1.5 × 9 = 13.5 ft (and beyond 1.5 × A's 5 ft).
-    const near = settlement({ points: [pt('A', '0', '0', '0'), pt('B', '5', '0', '0'), pt('C', '14', '0', '-1')] });
+    const near = settlement({
+      points: [pt('A', '0', '0', '0'), pt('B', '5', '0', '0'), pt('C', '14', '0', '-1')],
+    });
     expect(near.pairs.map((p) => `${p.a}-${p.b}`).sort()).toEqual(['A-B', 'B-C']);
     // C at 15 ft: A at 15 ft is exactly 1.5 × 10 ft, and the bound is inclusive.
-    const edge = settlement({ points: [pt('A', '0', '0', '0'), pt('B', '5', '0', '0'), pt('C', '15', '0', '-1')] });
+    const edge = settlement({
+      points: [pt('A', '0', '0', '0'), pt('B', '5', '0', '0'), pt('C', '15', '0', '-1')],
+    });
     expect(edge.pairs.map((p) => `${p.a}-${p.b}`).sort()).toEqual(['A-B', 'A-C', 'B-C']);
   });
 
@@ -120,17 +134,30 @@ describe('settlement: tilt of the best-fit plane', () => {
     // a plane rising 1 in per 10 ft along x: 1/120 = 0.83 %
     [[pt('A', '0', '0', '0'), pt('B', '10', '0', '1'), pt('C', '0', '10', '0')], '0.83'],
     // 0.3 in per 10 ft along x and 0.4 in per 10 ft along y → 0.5 in per 10 ft (120 in) = 0.42 %
-    [[pt('A', '0', '0', '0'), pt('B', '10', '0', '0.3'), pt('C', '0', '10', '0.4'), pt('D', '10', '10', '0.7')], '0.42'],
+    [
+      [
+        pt('A', '0', '0', '0'),
+        pt('B', '10', '0', '0.3'),
+        pt('C', '0', '10', '0.4'),
+        pt('D', '10', '10', '0.7'),
+      ],
+      '0.42',
+    ],
     // level floor
     [[pt('A', '0', '0', '2'), pt('B', '10', '0', '2'), pt('C', '0', '10', '2')], '0.00'],
     // 12 in over 10 ft = 10 %
-    [[pt('A', '0', '0', '0'), pt('B', '10', '0', '12'), pt('C', '0', '10', '0'), pt('D', '10', '10', '12')], '10.00'],
+    [
+      [pt('A', '0', '0', '0'), pt('B', '10', '0', '12'), pt('C', '0', '10', '0'), pt('D', '10', '10', '12')],
+      '10.00',
+    ],
   ])('tilt of %j is %s %%', (points, tilt) => {
     expect(settlement({ points }).tiltPercent).toBe(tilt);
   });
 
   it('is not defined when all points lie on one line', () => {
-    const result = settlement({ points: [pt('A', '0', '0', '0'), pt('B', '10', '10', '1'), pt('C', '20', '20', '0')] });
+    const result = settlement({
+      points: [pt('A', '0', '0', '0'), pt('B', '10', '10', '1'), pt('C', '20', '20', '0')],
+    });
     expect(result.tiltPercent).toBeNull();
     expect(result.tiltNote).toContain('one line');
   });
@@ -143,7 +170,11 @@ describe('settlement: input checks', () => {
     [{ points: [pt('A', '0', '0', '0'), pt('A', '10', '0', '0')] }, 'points[1].label', 'unique'],
     [{ points: [pt('A', '0', '0', '0'), pt(' ', '10', '0', '0')] }, 'points[1].label', 'label'],
     [{ points: [pt('A', '0', '0', '0'), pt('B', '1e1', '0', '0')] }, 'points[1].xFt', 'not a plain decimal'],
-    [{ points: [pt('A', '0', '0', '0'), { label: 'B', xFt: '1', yFt: '0', elevationIn: 0.5 }] }, 'points[1].elevationIn', 'string'],
+    [
+      { points: [pt('A', '0', '0', '0'), { label: 'B', xFt: '1', yFt: '0', elevationIn: 0.5 }] },
+      'points[1].elevationIn',
+      'string',
+    ],
     [{ points: [pt('A', '0', '0', '0'), pt('B', '0', '0', '1')] }, 'points[1]', 'same place'],
   ])('refuses %j', (input, field, message) => {
     try {
@@ -165,10 +196,15 @@ describe('settlement: properties', () => {
       selector: ([x, y]) => `${x},${y}`,
     })
     .chain((spots) =>
-      fc.tuple(fc.constant(spots), fc.array(fc.integer({ min: -30, max: 30 }), { minLength: spots.length, maxLength: spots.length })),
+      fc.tuple(
+        fc.constant(spots),
+        fc.array(fc.integer({ min: -30, max: 30 }), { minLength: spots.length, maxLength: spots.length }),
+      ),
     )
     .map(([spots, tenths]) =>
-      spots.map(([x, y], i) => pt(`P${i}`, String(x), String(y), new Decimal(tenths[i] ?? 0).div(10).toFixed())),
+      spots.map(([x, y], i) =>
+        pt(`P${i}`, String(x), String(y), new Decimal(tenths[i] ?? 0).div(10).toFixed()),
+      ),
     );
 
   // β = dz / dist, kept as squares (dz², dist² in in²) so that comparisons are exact.
@@ -181,7 +217,8 @@ describe('settlement: properties', () => {
     const dz = new Decimal(p.elevationIn).minus(q.elevationIn).abs();
     return { dz, dz2: dz.pow(2), dist2: dx.pow(2).plus(dy.pow(2)).mul(144) };
   };
-  const atLeast = (x: ReturnType<typeof betaOf>, y: ReturnType<typeof betaOf>) => x.dz2.mul(y.dist2).gte(y.dz2.mul(x.dist2));
+  const atLeast = (x: ReturnType<typeof betaOf>, y: ReturnType<typeof betaOf>) =>
+    x.dz2.mul(y.dist2).gte(y.dz2.mul(x.dist2));
 
   it("the worst pair's β is at least every compared pair's β", () => {
     fc.assert(
@@ -206,7 +243,8 @@ describe('settlement: properties', () => {
         else {
           const n = new Decimal(ratio.slice(2));
           // 1/N ≥ β ⇔ N·dz ≤ dist, and N is the largest such whole number: (N+1)·dz > dist
-          notUnderstated = worst.dz.mul(n).pow(2).lte(worst.dist2) && worst.dz.mul(n.plus(1)).pow(2).gt(worst.dist2);
+          notUnderstated =
+            worst.dz.mul(n).pow(2).lte(worst.dist2) && worst.dz.mul(n.plus(1)).pow(2).gt(worst.dist2);
         }
         return covered && notUnderstated;
       }),

@@ -263,7 +263,14 @@ function describePair(points: ParsedPoint[], p: PairMath): SettlementPair {
 function planeTiltPercent(points: ParsedPoint[]): CalcDecimalValue | null {
   const n = new CalcDecimal(points.length);
   const zero = new CalcDecimal(0);
-  let sx = zero, sy = zero, sz = zero, sxx = zero, syy = zero, sxy = zero, sxz = zero, syz = zero;
+  let sx = zero,
+    sy = zero,
+    sz = zero,
+    sxx = zero,
+    syy = zero,
+    sxy = zero,
+    sxz = zero,
+    syz = zero;
   for (const p of points) {
     sx = sx.plus(p.x);
     sy = sy.plus(p.y);
@@ -291,7 +298,9 @@ function parsePoints(input: SettlementInput): ParsedPoint[] {
   const fields = requireInputObject(input, 'The settlement survey');
   const raw = fields.points;
   if (!Array.isArray(raw)) {
-    throw new CalculatorInputError([{ field: 'points', message: 'Points must be a list of survey readings.' }]);
+    throw new CalculatorInputError([
+      { field: 'points', message: 'Points must be a list of survey readings.' },
+    ]);
   }
   if (raw.length < 2) {
     throw new CalculatorInputError([
@@ -317,7 +326,10 @@ function parsePoints(input: SettlementInput): ParsedPoint[] {
     if (label === '') {
       v.add(`${field}.label`, `Point ${index + 1} needs a label.`);
     } else if (seen.has(label)) {
-      v.add(`${field}.label`, `Label "${label}" is used by points ${(seen.get(label) ?? 0) + 1} and ${index + 1}: labels must be unique.`);
+      v.add(
+        `${field}.label`,
+        `Label "${label}" is used by points ${(seen.get(label) ?? 0) + 1} and ${index + 1}: labels must be unique.`,
+      );
     } else {
       seen.set(label, index);
     }

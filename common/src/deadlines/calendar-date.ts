@@ -8,7 +8,15 @@ export type IsoDate = string;
 export const DEADLINE_MIN_YEAR = 2000;
 export const DEADLINE_MAX_YEAR = 2100;
 
-export const WEEKDAY_NAMES = ['Sunday', 'Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday', 'Saturday'] as const;
+export const WEEKDAY_NAMES = [
+  'Sunday',
+  'Monday',
+  'Tuesday',
+  'Wednesday',
+  'Thursday',
+  'Friday',
+  'Saturday',
+] as const;
 
 const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
 const MS_PER_DAY = 86_400_000;
@@ -22,7 +30,8 @@ export function calendarDayNumber(value: string): number | null {
   const day = Number(match[3]);
   const ms = Date.UTC(year, month - 1, day);
   const check = new Date(ms);
-  if (check.getUTCFullYear() !== year || check.getUTCMonth() !== month - 1 || check.getUTCDate() !== day) return null;
+  if (check.getUTCFullYear() !== year || check.getUTCMonth() !== month - 1 || check.getUTCDate() !== day)
+    return null;
   return ms / MS_PER_DAY;
 }
 
@@ -55,7 +64,12 @@ export function weekendObservedDate(date: IsoDate): IsoDate | null {
 }
 
 /** Read a required 'YYYY-MM-DD' field; records a problem and returns undefined when invalid. */
-export function readCalendarDate(v: InputCollector, field: string, label: string, value: unknown): IsoDate | undefined {
+export function readCalendarDate(
+  v: InputCollector,
+  field: string,
+  label: string,
+  value: unknown,
+): IsoDate | undefined {
   if (value === undefined || value === null) {
     v.add(field, `${label} is required.`);
     return undefined;

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
+import Holidays from 'date-holidays';
 import { cancellationDeadline } from './cancellation-deadline';
 import { federalHolidaysBetween, FEDERAL_HOLIDAY_NAMES } from './federal-holidays';
 import { CalculatorInputError } from '../calculators/errors';
@@ -12,7 +13,8 @@ import { CalculatorInputError } from '../calculators/errors';
 const DAY = 86_400_000;
 const iso = (y: number, m: number, d: number) => new Date(Date.UTC(y, m - 1, d)).toISOString().slice(0, 10);
 const weekdayOf = (date: string) => new Date(`${date}T00:00:00Z`).getUTCDay();
-const shift = (date: string, days: number) => new Date(Date.parse(`${date}T00:00:00Z`) + days * DAY).toISOString().slice(0, 10);
+const shift = (date: string, days: number) =>
+  new Date(Date.parse(`${date}T00:00:00Z`) + days * DAY).toISOString().slice(0, 10);
 /** The n-th given weekday (0 = Sunday) of a month. */
 const nth = (y: number, m: number, weekday: number, n: number) => {
   const first = weekdayOf(iso(y, m, 1));
@@ -41,7 +43,8 @@ function handFederalHolidays(y: number): { name: string; date: string }[] {
   ];
   return list.filter((h) => h.name !== 'Juneteenth' || y >= 2021);
 }
-const observedOf = (date: string) => (weekdayOf(date) === 6 ? shift(date, -1) : weekdayOf(date) === 0 ? shift(date, 1) : null);
+const observedOf = (date: string) =>
+  weekdayOf(date) === 6 ? shift(date, -1) : weekdayOf(date) === 0 ? shift(date, 1) : null;
 /** Every date that is a federal holiday or the weekday on which one is observed, from the hand computation. */
 function handFederalDates(fromYear: number, toYear: number): Set<string> {
   const dates = new Set<string>();
@@ -77,13 +80,16 @@ describe('federal holidays from date-holidays match 5 U.S.C. 6103(a)', () => {
     expect([...names].sort()).toEqual([...FEDERAL_HOLIDAY_NAMES].sort());
   });
 
-  it.each([2026, 2027, 2028])('%i: the holidays themselves match the hand computation (5 U.S.C. 6103(a))', (year) => {
-    const fromPackage = federalHolidaysBetween(`${year}-01-01`, `${year}-12-31`)
-      .filter((h) => h.kind === 'actual')
-      .map((h) => `${h.date} ${h.name}`);
-    const byHand = handFederalHolidays(year).map((h) => `${h.date} ${h.name}`);
-    expect(fromPackage.sort()).toEqual(byHand.sort());
-  });
+  it.each([2026, 2027, 2028])(
+    '%i: the holidays themselves match the hand computation (5 U.S.C. 6103(a))',
+    (year) => {
+      const fromPackage = federalHolidaysBetween(`${year}-01-01`, `${year}-12-31`)
+        .filter((h) => h.kind === 'actual')
+        .map((h) => `${h.date} ${h.name}`);
+      const byHand = handFederalHolidays(year).map((h) => `${h.date} ${h.name}`);
+      expect(fromPackage.sort()).toEqual(byHand.sort());
+    },
+  );
 
   it.each([
     // observed weekdays, 5 U.S.C. 6103(a) with E.O. 11582: Saturday → Friday, Sunday → Monday
@@ -107,6 +113,29 @@ describe('federal holidays from date-holidays match 5 U.S.C. 6103(a)', () => {
     const fromPackage = new Set(federalHolidaysBetween('2021-01-01', '2040-12-31').map((h) => h.date));
     const byHand = [...handFederalDates(2020, 2041)].filter((d) => d >= '2021-01-01' && d <= '2040-12-31');
     expect([...fromPackage].sort()).toEqual(byHand.sort());
+  });
+
+  it('2021–2040: the raw package output alone (no weekend rule of ours) has each observed day, of type public or bank', () => {
+    const raw = new Holidays('US');
+    const substitutes = new Set<string>();
+    const types = new Set<string>();
+    for (let y = 2021; y <= 2040; y++) {
+      for (const h of raw.getHolidays(y, 'en-us')) {
+        const base = h.name.replace(/ \(substitute day\)$/, '');
+        if (!(FEDERAL_HOLIDAY_NAMES as readonly string[]).includes(base) || !h.substitute) continue;
+        substitutes.add(h.date.slice(0, 10));
+        types.add(h.type);
+      }
+    }
+    const byHand = new Set<string>();
+    for (let y = 2021; y <= 2040; y++) {
+      for (const h of handFederalHolidays(y)) {
+        const observed = observedOf(h.date);
+        if (observed) byHand.add(observed);
+      }
+    }
+    expect([...substitutes].sort()).toEqual([...byHand].sort());
+    expect([...types].sort()).toEqual(['bank', 'public']); // why we filter by name, not by type
   });
 
   it('leaves out holidays that are not federal (Easter, Election Day, day after Thanksgiving, Christmas Eve)', () => {
@@ -191,9 +220,18 @@ describe('cancellationDeadline (16 CFR 429)', () => {
     fc.assert(
       fc.property(signedOn, (date) => {
         const result = cancellationDeadline({ signedOn: date });
-        const allCounted = result.businessDaysCounted.every((d) => weekdayOf(d) !== 0 && !holidaysByHand.has(d));
-        const allSkippedRightly = result.skipped.every((s) => weekdayOf(s.date) === 0 || holidaysByHand.has(s.date));
-        return weekdayOf(result.lastDayToCancel) !== 0 && !holidaysByHand.has(result.lastDayToCancel) && allCounted && allSkippedRightly;
+        const allCounted = result.businessDaysCounted.every(
+          (d) => weekdayOf(d) !== 0 && !holidaysByHand.has(d),
+        );
+        const allSkippedRightly = result.skipped.every(
+          (s) => weekdayOf(s.date) === 0 || holidaysByHand.has(s.date),
+        );
+        return (
+          weekdayOf(result.lastDayToCancel) !== 0 &&
+          !holidaysByHand.has(result.lastDayToCancel) &&
+          allCounted &&
+          allSkippedRightly
+        );
       }),
     );
   });
@@ -201,7 +239,10 @@ describe('cancellationDeadline (16 CFR 429)', () => {
   it('signing a day later never moves the deadline earlier', () => {
     fc.assert(
       fc.property(signedOn, (date) => {
-        return cancellationDeadline({ signedOn: shift(date, 1) }).lastDayToCancel >= cancellationDeadline({ signedOn: date }).lastDayToCancel;
+        return (
+          cancellationDeadline({ signedOn: shift(date, 1) }).lastDayToCancel >=
+          cancellationDeadline({ signedOn: date }).lastDayToCancel
+        );
       }),
     );
   });

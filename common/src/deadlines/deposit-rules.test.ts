@@ -92,14 +92,24 @@ describe('depositRules, federal notice and other states', () => {
   });
 
   it("gives the end of the buyer's cancellation window when the signing date is known", () => {
-    const result = depositRules({ state: 'FL', contractPrice: '9000.00', deposit: '900.00', signedOn: '2026-07-02' });
+    const result = depositRules({
+      state: 'FL',
+      contractPrice: '9000.00',
+      deposit: '900.00',
+      signedOn: '2026-07-02',
+    });
     // 16 CFR 429.1(a); REFERENCE-VALUES.md worked example
     expect(result.clocks.find((c) => c.code === 'FTC_429_CANCEL')?.dueOn).toBe('2026-07-08');
     expect(result.warnings.join(' ')).toContain('refunded within 10 business days');
   });
 
   it('another state: the federal notice only, with a warning, and no throw (the federal notice still applies)', () => {
-    const result = depositRules({ state: 'tx', contractPrice: '18500.00', deposit: '5000.00', paidOn: '2026-03-02' });
+    const result = depositRules({
+      state: 'tx',
+      contractPrice: '18500.00',
+      deposit: '5000.00',
+      paidOn: '2026-03-02',
+    });
     expect(result.state).toBe('TX');
     expect(result.statePack).toBeNull();
     expect(result.largeInitialPayment).toBeNull();
@@ -115,7 +125,11 @@ describe('depositRules, federal notice and other states', () => {
   });
 
   it.each([
-    [{ state: 'FL', contractPrice: '1000.00', deposit: '1000.01' }, 'deposit', 'more than the contract price'],
+    [
+      { state: 'FL', contractPrice: '1000.00', deposit: '1000.01' },
+      'deposit',
+      'more than the contract price',
+    ],
     [{ state: 'FL', contractPrice: '0', deposit: '0' }, 'contractPrice', 'greater than 0'],
     [{ state: 'FL', contractPrice: '1000.001', deposit: '0' }, 'contractPrice', '2 digits after'],
     [{ state: 'FL', contractPrice: '1000', deposit: '-5' }, 'deposit', 'negative'],

@@ -80,18 +80,27 @@ export function depositRules(input: DepositRulesInput): DepositRulesResult {
   const fields = requireInputObject(input, 'The deposit rules');
   const v = new InputCollector();
   const state = readStateCode(v, 'state', fields.state);
-  const price = v.decimal('contractPrice', 'Contract price', fields.contractPrice, { positive: true, maxDecimals: 2 });
+  const price = v.decimal('contractPrice', 'Contract price', fields.contractPrice, {
+    positive: true,
+    maxDecimals: 2,
+  });
   const deposit = v.decimal('deposit', 'Deposit', fields.deposit, { maxDecimals: 2 });
-  const paidOn = fields.paidOn === undefined ? undefined : readCalendarDate(v, 'paidOn', 'Date paid', fields.paidOn);
+  const paidOn =
+    fields.paidOn === undefined ? undefined : readCalendarDate(v, 'paidOn', 'Date paid', fields.paidOn);
   const permitIssuedOn =
     fields.permitIssuedOn === undefined
       ? undefined
       : readCalendarDate(v, 'permitIssuedOn', 'Date the permits were issued', fields.permitIssuedOn);
   const signedOn =
-    fields.signedOn === undefined ? undefined : readCalendarDate(v, 'signedOn', 'Date signed', fields.signedOn);
+    fields.signedOn === undefined
+      ? undefined
+      : readCalendarDate(v, 'signedOn', 'Date signed', fields.signedOn);
   let property: ContractPropertyKind = 'dwelling-1-to-4-units';
   if (fields.property !== undefined) {
-    if (typeof fields.property === 'string' && (CONTRACT_PROPERTY_KINDS as readonly string[]).includes(fields.property)) {
+    if (
+      typeof fields.property === 'string' &&
+      (CONTRACT_PROPERTY_KINDS as readonly string[]).includes(fields.property)
+    ) {
       property = fields.property as ContractPropertyKind;
     } else {
       v.add('property', `Property must be one of ${CONTRACT_PROPERTY_KINDS.join(', ')}.`);
@@ -107,11 +116,13 @@ export function depositRules(input: DepositRulesInput): DepositRulesResult {
   const notices: ContractNotice[] = [ftcNotice(price)];
   const clocks: ContractClock[] = [ftcClock(signedOn)];
   if (price.lt(25)) {
-    warnings.push('Below $25 the Cooling-Off Rule does not require the cancellation notice; giving it does no harm.');
+    warnings.push(
+      'Below $25 the Cooling-Off Rule does not require the cancellation notice; giving it does no harm.',
+    );
   }
   if (deposit.gt(0)) {
     warnings.push(
-      'A deposit taken before the cancellation window closes is not yet the contractor\'s money: after a valid ' +
+      "A deposit taken before the cancellation window closes is not yet the contractor's money: after a valid " +
         'cancellation every payment, the deposit included, is refunded within 10 business days (FTC guidance, secondary).',
     );
   }
@@ -177,8 +188,10 @@ export function depositRules(input: DepositRulesInput): DepositRulesResult {
       startsWhen: `the permits are issued; due within ${rule.startWorkWithinDaysOfPermit} days after that`,
       rule: ruleText,
     });
-    if (!paidOn) warnings.push('Give the date the deposit was received to see when the permit application is due.');
-    if (!permitIssuedOn) warnings.push('Once the permits are issued, give that date to see when work must start.');
+    if (!paidOn)
+      warnings.push('Give the date the deposit was received to see when the permit application is due.');
+    if (!permitIssuedOn)
+      warnings.push('Once the permits are issued, give that date to see when work must start.');
   }
 
   return {
@@ -207,7 +220,7 @@ function ftcNotice(price: CalcDecimalValue): ContractNotice {
       'must be taken from 16 CFR 429.1(b).',
     appliesBecause: price.gte(25)
       ? "A sale of $25 or more made at the buyer's residence (16 CFR 429.0(a)). Listed for every contract: Loambook " +
-        "does not know where this one is signed, and leaving the notice out when it applies would cost the buyer the right."
+        'does not know where this one is signed, and leaving the notice out when it applies would cost the buyer the right.'
       : 'Listed for every contract; below $25 the rule does not require it.',
   };
 }

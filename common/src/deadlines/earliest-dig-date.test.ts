@@ -8,8 +8,10 @@ import { CalculatorInputError, StatePackMissingError } from '../calculators/erro
 const DAY = 86_400_000;
 const iso = (y: number, m: number, d: number) => new Date(Date.UTC(y, m - 1, d)).toISOString().slice(0, 10);
 const weekdayOf = (date: string) => new Date(`${date}T00:00:00Z`).getUTCDay();
-const shift = (date: string, days: number) => new Date(Date.parse(`${date}T00:00:00Z`) + days * DAY).toISOString().slice(0, 10);
-const nth = (y: number, m: number, weekday: number, n: number) => iso(y, m, 1 + ((weekday - weekdayOf(iso(y, m, 1)) + 7) % 7) + 7 * (n - 1));
+const shift = (date: string, days: number) =>
+  new Date(Date.parse(`${date}T00:00:00Z`) + days * DAY).toISOString().slice(0, 10);
+const nth = (y: number, m: number, weekday: number, n: number) =>
+  iso(y, m, 1 + ((weekday - weekdayOf(iso(y, m, 1)) + 7) % 7) + 7 * (n - 1));
 const lastMonday = (y: number, m: number) => {
   const end = new Date(Date.UTC(y, m, 0)).getUTCDate();
   return iso(y, m, end - ((weekdayOf(iso(y, m, end)) - 1 + 7) % 7));
@@ -123,19 +125,22 @@ describe('earliestDigDate, Florida (F.S. 556.105(1)(a), F.S. 556.102)', () => {
     );
   });
 
-  it.each(['TX', 'ga', 'ZZ'])('has no rule pack for %s: throws StatePackMissingError telling the user to follow that state\'s one-call law', (state) => {
-    try {
-      earliestDigDate({ state, filedOn: '2026-11-25' });
-      expect.unreachable();
-    } catch (error) {
-      expect(error).toBeInstanceOf(StatePackMissingError);
-      const e = error as StatePackMissingError;
-      expect(e.code).toBe('CALC.NO_STATE_PACK');
-      expect(e.state).toBe(state.toUpperCase());
-      expect(e.message).toContain(`No rule pack exists for ${state.toUpperCase()}`);
-      expect(e.message).toContain('one-call (811) law');
-    }
-  });
+  it.each(['TX', 'ga', 'ZZ'])(
+    "has no rule pack for %s: throws StatePackMissingError telling the user to follow that state's one-call law",
+    (state) => {
+      try {
+        earliestDigDate({ state, filedOn: '2026-11-25' });
+        expect.unreachable();
+      } catch (error) {
+        expect(error).toBeInstanceOf(StatePackMissingError);
+        const e = error as StatePackMissingError;
+        expect(e.code).toBe('CALC.NO_STATE_PACK');
+        expect(e.state).toBe(state.toUpperCase());
+        expect(e.message).toContain(`No rule pack exists for ${state.toUpperCase()}`);
+        expect(e.message).toContain('one-call (811) law');
+      }
+    },
+  );
 
   it.each([
     [{ state: 'Florida', filedOn: '2026-11-25' }, 'state'],

@@ -47,7 +47,9 @@ function oneCallCalendar(pack: StateRulePack, rules: OneCallRulePack): HolidayCa
       const holidays = new Holidays();
       for (const h of rules.holidays) {
         if (!holidays.setHoliday(h.rule, { name: h.name, type: 'public' })) {
-          throw new Error(`Rule pack ${pack.code}: date-holidays cannot read the rule "${h.rule}" (${h.name}).`);
+          throw new Error(
+            `Rule pack ${pack.code}: date-holidays cannot read the rule "${h.rule}" (${h.name}).`,
+          );
         }
       }
       return holidays;

@@ -47,7 +47,8 @@ export class HolidayCalendar {
     this.instance ??= this.spec.create();
     const marks: HolidayMark[] = [];
     const add = (mark: HolidayMark) => {
-      if (!marks.some((m) => m.date === mark.date && m.name === mark.name && m.kind === mark.kind)) marks.push(mark);
+      if (!marks.some((m) => m.date === mark.date && m.name === mark.name && m.kind === mark.kind))
+        marks.push(mark);
     };
     for (const holiday of this.instance.getHolidays(year, this.spec.language)) {
       const isSubstitute = holiday.substitute === true || holiday.name.endsWith(SUBSTITUTE_SUFFIX);
@@ -57,7 +58,8 @@ export class HolidayCalendar {
       const name = this.spec.accept(baseName);
       if (name === null) continue;
       const date = holiday.date.slice(0, 10);
-      if (calendarDayNumber(date) === null) throw new Error(`date-holidays returned an unreadable date: ${holiday.date}`);
+      if (calendarDayNumber(date) === null)
+        throw new Error(`date-holidays returned an unreadable date: ${holiday.date}`);
       if (isSubstitute) {
         if (this.spec.addObservedWeekdays) add({ date, name, kind: 'observed' });
         continue;
@@ -68,7 +70,9 @@ export class HolidayCalendar {
     }
     for (const expected of this.spec.expectedNames(year)) {
       if (!marks.some((m) => m.kind === 'actual' && m.name === expected && calendarYear(m.date) === year)) {
-        throw new Error(`Holiday data is incomplete: no "${expected}" found for ${year}. Check the date-holidays package.`);
+        throw new Error(
+          `Holiday data is incomplete: no "${expected}" found for ${year}. Check the date-holidays package.`,
+        );
       }
     }
     marks.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0));

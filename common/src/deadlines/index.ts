@@ -18,7 +18,11 @@ export {
   FTC_COOLING_OFF_BUSINESS_DAYS,
   FTC_COOLING_OFF_SOURCE,
 } from './cancellation-deadline';
-export type { CancellationDeadlineInput, CancellationDeadlineResult, SkippedDay } from './cancellation-deadline';
+export type {
+  CancellationDeadlineInput,
+  CancellationDeadlineResult,
+  SkippedDay,
+} from './cancellation-deadline';
 export { FLORIDA_RULE_PACK, STATE_RULE_PACKS, findStateRulePack } from './state-packs';
 export type {
   ContractNoticeRule,

@@ -89,9 +89,10 @@ export const FLORIDA_RULE_PACK: StateRulePack = {
       'The day of the call does not count; the two full business days are the next two business days after it.',
       'When a listed holiday falls on a Saturday, the Friday before is also treated as a non-business day; on a ' +
         'Sunday, the Monday after. The statute lists the days without saying; this is our reading, chosen because ' +
-        'a longer wait protects the digger and the utilities.',
+        'a longer wait protects the digger and the utilities. A day moved this way that lands on another listed day ' +
+        '(Christmas Eve on a Sunday moves onto Christmas Day) is not moved again.',
       'Digging may start on the day after the second full business day, whatever day of the week that is.',
-      'Dates only: a ticket filed after the centre\'s hours may count as filed on the next business day, which this ' +
+      "Dates only: a ticket filed after the centre's hours may count as filed on the next business day, which this " +
         'does not model.',
     ],
   },
@@ -110,7 +111,8 @@ export const FLORIDA_RULE_PACK: StateRulePack = {
         source: 'F.S. 713.015',
         overContractPrice: '2500.00',
         appliesTo: ['dwelling-1-to-4-units'],
-        format: 'In the direct contract, in at least 12-point, capitalised, bold type, signed and dated by the owner.',
+        format:
+          'In the direct contract, in at least 12-point, capitalised, bold type, signed and dated by the owner.',
         wordingFrom:
           'Take the full wording from F.S. 713.015 itself (the current official text); Loambook does not reproduce it.',
       },

@@ -1,0 +1,140 @@
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { mkdirSync, readFileSync } from 'node:fs';
+import net from 'node:net';
+import path from 'node:path';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { dropDatabase, ensureDatabase, startPostgres } from '../../../backend/scripts/lib/postgres.mjs';
+import { pg, REPO } from '../../../backend/scripts/lib/env.mjs';
+import { startMailCatcher, type MailCatcher } from '../../../backend/test/support/mail-catcher';
+
+const CHROMIUM_ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--no-first-run',
+];
+
+export const PHONE = { width: 390, height: 844 };
+export const DESKTOP = { width: 1280, height: 800 };
+
+export interface DemoAccount {
+  email: string;
+  password: string;
+  role: string;
+  branches: string[];
+  name: string;
+}
+
+export const demoAccounts: DemoAccount[] = JSON.parse(
+  readFileSync(path.join(REPO, 'seeds/data/demo-accounts.json'), 'utf8'),
+);
+export const demo = (role: string, branch?: string) =>
+  demoAccounts.find((a) => a.role === role && (!branch || a.branches.includes(branch)))!;
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = net.createServer();
+    srv.listen(0, '127.0.0.1', () => {
+      const { port } = srv.address() as net.AddressInfo;
+      srv.close(() => resolve(port));
+    });
+    srv.on('error', reject);
+  });
+}
+
+export interface Stack {
+  baseUrl: string;
+  mail: MailCatcher;
+  browser: Browser;
+  shotsDir: string;
+  /** A fresh browser profile (no session) sized like a desktop or a phone. */
+  newContext(viewport?: { width: number; height: number }): Promise<BrowserContext>;
+  shot(page: Page, name: string): Promise<void>;
+  close(): Promise<void>;
+}
+
+/**
+ * The built app as it ships: a fresh database with the demo company, the compiled server serving the
+ * built screens, mail caught in this process, and Debian's Chromium.
+ */
+export async function startStack(journey: string): Promise<Stack> {
+  await startPostgres();
+  const database = `loambook_e2e_${journey.replace(/\W/g, '_')}_${Date.now()}`;
+  await ensureDatabase(database);
+  const mail = await startMailCatcher();
+  const port = await freePort();
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const env = {
+    ...process.env,
+    PGPORT: String(pg.port),
+    PGDATABASE: database,
+    PORT: String(port),
+    PUBLIC_URL: baseUrl,
+    SMTP_PORT: String(mail.port),
+    LOG_LEVEL: 'warn',
+    SCRYPT_LOG_N: '12',
+  };
+  const db = spawnSync(process.execPath, ['backend/dist/backend/src/cli/db.js', 'migrate', 'seed'], {
+    cwd: REPO,
+    env,
+    encoding: 'utf8',
+  });
+  if (db.status !== 0) throw new Error(`migrate/seed failed: ${db.stdout}${db.stderr}`);
+
+  const server: ChildProcess = spawn(process.execPath, ['backend/dist/backend/src/main.js'], {
+    cwd: REPO,
+    env,
+    stdio: ['ignore', 'inherit', 'inherit'],
+  });
+  await waitForHealth(baseUrl, server);
+
+  const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: CHROMIUM_ARGS });
+  const shotsDir = path.join(REPO, 'frontend', 'e2e', '.screenshots', journey);
+  mkdirSync(shotsDir, { recursive: true });
+  let n = 0;
+
+  return {
+    baseUrl,
+    mail,
+    browser,
+    shotsDir,
+    newContext: (viewport = DESKTOP) => browser.newContext({ viewport, baseURL: baseUrl }),
+    async shot(page, name) {
+      n += 1;
+      await page.screenshot({ path: path.join(shotsDir, `${String(n).padStart(2, '0')}-${name}.png`), fullPage: true });
+    },
+    async close() {
+      await browser.close().catch(() => undefined);
+      server.kill('SIGTERM');
+      await new Promise((r) => server.once('exit', r));
+      await mail.close().catch(() => undefined);
+      if (!process.env.KEEP_TEST_DB) await dropDatabase(database);
+      console.log(`Screenshots of the "${journey}" journey: ${shotsDir}`);
+    },
+  };
+}
+
+async function waitForHealth(baseUrl: string, server: ChildProcess): Promise<void> {
+  for (let i = 0; i < 120; i++) {
+    if (server.exitCode !== null) throw new Error(`the server exited with ${server.exitCode}`);
+    try {
+      const res = await fetch(`${baseUrl}/api/health`);
+      if (res.ok) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error('the server did not become healthy');
+}
+
+export async function signIn(page: Page, email: string, password: string): Promise<void> {
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password', { exact: true }).fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
+}

@@ -1,0 +1,13 @@
+import { defineConfig } from 'vitest/config';
+
+// Browser journeys: Debian's Chromium (playwright-core) against the built app, one journey file at a time.
+export default defineConfig({
+  test: {
+    root: __dirname,
+    include: ['**/*.spec.ts'],
+    environment: 'node',
+    fileParallelism: false,
+    testTimeout: 120_000,
+    hookTimeout: 180_000,
+  },
+});
