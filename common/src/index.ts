@@ -5,3 +5,5 @@ export * from './branches/branch-rules';
 export * from './permissions/abilities';
 export * from './permissions/scope';
 export * from './api/types';
+export * from './calculators';
+export * from './deadlines';

@@ -186,6 +186,17 @@ describe('cancellationDeadline (16 CFR 429)', () => {
     expect(result.source).toContain('16 CFR 429.1(a)');
   });
 
+  it('names a day once even when two years of holiday data produce it (Sat 2028-01-01 observed Fri 2027-12-31)', () => {
+    expect(cancellationDeadline({ signedOn: '2027-12-30' }).skipped).toEqual([
+      { date: '2027-12-31', reason: "federal holiday: New Year's Day (observed)" },
+      { date: '2028-01-01', reason: "federal holiday: New Year's Day" },
+      { date: '2028-01-02', reason: 'Sunday' },
+    ]);
+    expect(federalHolidaysBetween('2027-12-31', '2027-12-31')).toEqual([
+      { date: '2027-12-31', name: "New Year's Day", kind: 'observed' },
+    ]);
+  });
+
   it.each([
     [{ signedOn: '2026-02-30' }, 'not a real calendar date'],
     [{ signedOn: '2026-7-2' }, 'YYYY-MM-DD'],

@@ -76,6 +76,7 @@ describe('depositRules, Florida pack', () => {
     expect(lien?.text).toBeUndefined();
     expect(lien?.wordingFrom).toContain('F.S. 713.015');
     expect(lien?.format).toContain('12-point');
+    expect(lien?.appliesBecause).toContain('over $2,500.00');
     expect(fund?.text).toBeUndefined();
     expect(fund?.wordingFrom).toContain('F.S. 489.1425');
   });

@@ -162,7 +162,7 @@ export function depositRules(input: DepositRulesInput): DepositRulesResult {
         source: notice.source,
         ...(notice.format ? { format: notice.format } : {}),
         wordingFrom: notice.wordingFrom,
-        appliesBecause: `Contract price over $${formatCalcDecimal(threshold, 2)} for work on ${describeProperty(property)}.`,
+        appliesBecause: `Contract price over ${dollars(threshold)} for work on ${describeProperty(property)}.`,
       });
     }
   }
@@ -234,6 +234,12 @@ function ftcClock(signedOn: IsoDate | undefined): ContractClock {
     startsWhen: 'the contract is signed; ends at midnight of the third business day after that day',
     rule: 'Business days are all days except Sundays and federal holidays.',
   };
+}
+
+/** "$2,500.00": for messages only. */
+function dollars(amount: CalcDecimalValue): string {
+  const [whole = '0', cents = '00'] = formatCalcDecimal(amount, 2).split('.');
+  return `$${whole.replace(/\B(?=(\d{3})+(?!\d))/g, ',')}.${cents}`;
 }
 
 function percentOf(part: CalcDecimalValue, whole: CalcDecimalValue): string {

@@ -78,6 +78,19 @@ describe('earliestDigDate, Florida (F.S. 556.105(1)(a), F.S. 556.102)', () => {
     expect(result.source).toContain('F.S. 556.102');
   });
 
+  it('names a day once, with every reason that applies', () => {
+    const result = earliestDigDate({ state: 'FL', filedOn: '2027-12-22' });
+    expect(result.skipped).toEqual([
+      {
+        date: '2027-12-24',
+        reason: 'FL one-call holiday: Christmas Day (observed); FL one-call holiday: Christmas Eve',
+      },
+      { date: '2027-12-25', reason: 'Saturday; FL one-call holiday: Christmas Day' },
+      { date: '2027-12-26', reason: 'Sunday' },
+    ]);
+    expect(result.earliestDigDate).toBe('2027-12-28');
+  });
+
   it('names the weekend reading as ours, and carries the 811 cautions', () => {
     const result = earliestDigDate({ state: 'fl', filedOn: '2026-11-25' });
     expect(result.state).toBe('FL');

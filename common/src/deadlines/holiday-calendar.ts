@@ -83,17 +83,31 @@ export class HolidayCalendar {
   /** The marks on one date (empty when it is an ordinary day). */
   marksOn(date: IsoDate): HolidayMark[] {
     const year = calendarYear(date);
-    return [year - 1, year, year + 1].flatMap((y) => this.marksOfYear(y)).filter((m) => m.date === date);
+    return this.marksBetween(date, date, [year - 1, year, year + 1]);
   }
 
-  /** The marks from `from` to `to`, both included, in date order. */
-  marksBetween(from: IsoDate, to: IsoDate): HolidayMark[] {
-    const years: number[] = [];
-    for (let y = calendarYear(from) - 1; y <= calendarYear(to) + 1; y++) years.push(y);
-    return years
-      .flatMap((y) => this.marksOfYear(y))
-      .filter((m) => m.date >= from && m.date <= to)
-      .sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : a.name < b.name ? -1 : 1));
+  /** The marks from `from` to `to`, both included, in date order, each once. */
+  marksBetween(from: IsoDate, to: IsoDate, years?: number[]): HolidayMark[] {
+    const span: number[] = years ?? [];
+    if (!years) for (let y = calendarYear(from) - 1; y <= calendarYear(to) + 1; y++) span.push(y);
+    // A weekend holiday near New Year can be produced by two years' lists (2028-01-01 gives 2027-12-31).
+    const unique = new Map<string, HolidayMark>();
+    for (const mark of span.flatMap((y) => this.marksOfYear(y))) {
+      if (mark.date >= from && mark.date <= to) unique.set(`${mark.date}|${mark.kind}|${mark.name}`, mark);
+    }
+    return [...unique.values()].sort((a, b) =>
+      a.date !== b.date
+        ? a.date < b.date
+          ? -1
+          : 1
+        : a.name !== b.name
+          ? a.name < b.name
+            ? -1
+            : 1
+          : a.kind < b.kind
+            ? -1
+            : 1,
+    );
   }
 }
 
