@@ -8,7 +8,7 @@ export default defineConfig({
     swc.vite({ jsc: { transform: { decoratorMetadata: true, legacyDecorator: true }, target: 'es2022' } }),
   ],
   resolve: {
-    alias: { '@loambook/common': path.resolve(__dirname, '../common/src/index.ts') },
+    alias: { '@loambook/common': path.resolve(import.meta.dirname, '../common/src/index.ts') },
   },
   test: {
     include: ['test/**/*.e2e-spec.ts', 'src/**/*.spec.ts'],

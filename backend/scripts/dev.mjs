@@ -3,12 +3,12 @@
 import { spawn } from 'node:child_process';
 import { app, log, pg, REPO } from './lib/env.mjs';
 import { ensureDatabase, startPostgres } from './lib/postgres.mjs';
-import { startMaildev } from './lib/maildev.mjs';
+import { startFakes } from './lib/fakes.mjs';
 import { runVisible } from './lib/run.mjs';
 
 await startPostgres();
 await ensureDatabase(pg.database);
-const inbox = await startMaildev();
+const { inbox } = await startFakes();
 const env = {
   ...process.env,
   PGPORT: String(pg.port),

@@ -5,7 +5,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { app, log, pg, REPO } from './lib/env.mjs';
 import { ensureDatabase, startPostgres } from './lib/postgres.mjs';
-import { startMaildev } from './lib/maildev.mjs';
+import { startFakes } from './lib/fakes.mjs';
 import { runVisible } from './lib/run.mjs';
 
 const npm = process.platform === 'win32' ? 'npm.cmd' : 'npm';
@@ -20,7 +20,7 @@ const step = async (what, cmd, args, options = {}) => {
 
 await startPostgres();
 await ensureDatabase(pg.database);
-const inbox = await startMaildev();
+const { inbox } = await startFakes();
 await step('Building common, backend and frontend', npm, ['run', 'build', '--silent']);
 const env = { ...process.env, PGPORT: String(pg.port), PGDATABASE: pg.database, PORT: String(app.port) };
 await step(

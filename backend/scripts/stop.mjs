@@ -1,6 +1,6 @@
 // npm run stop: stops the local PostgreSQL and the local fakes started by npm start / npm run dev.
 import { stopPostgres } from './lib/postgres.mjs';
-import { stopMaildev } from './lib/maildev.mjs';
+import { stopFakes } from './lib/fakes.mjs';
 
-stopMaildev();
+stopFakes();
 await stopPostgres();

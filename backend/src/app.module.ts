@@ -9,6 +9,7 @@ import { MailModule } from './mail/mail.module';
 import { AuthModule } from './auth/auth.module';
 import { BranchesModule } from './branches/branches.module';
 import { UsersModule } from './users/users.module';
+import { CalculatorsModule } from './calculators/calculators.module';
 import { HealthController } from './health/health.controller';
 
 @Module({})
@@ -33,6 +34,7 @@ export class AppModule {
         AuthModule,
         BranchesModule,
         UsersModule,
+        CalculatorsModule,
       ],
       controllers: [HealthController],
       providers: [

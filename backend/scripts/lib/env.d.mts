@@ -9,5 +9,6 @@ export const pg: {
   dataDir: string;
 };
 export const mail: { smtpPort: number; webPort: number };
+export const s3: { port: number; bucket: string };
 export const app: { port: number };
 export function log(message: string): void;

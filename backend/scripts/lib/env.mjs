@@ -20,6 +20,11 @@ export const mail = {
   webPort: Number(process.env.MAILDEV_WEB_PORT ?? 1080),
 };
 
+export const s3 = {
+  port: Number(process.env.S3_PORT ?? 4569),
+  bucket: process.env.S3_BUCKET ?? 'loambook-files',
+};
+
 export const app = {
   port: Number(process.env.PORT ?? 3000),
 };
