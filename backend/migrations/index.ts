@@ -1,5 +1,6 @@
 import type { Knex } from 'knex';
 import * as foundation from './20261201000000_foundation';
+import * as selling from './20261202000000_selling';
 
 /**
  * Every migration, in order. Listed here (not found on disk) so that the compiled server and the tests,
@@ -8,4 +9,5 @@ import * as foundation from './20261201000000_foundation';
  */
 export const MIGRATIONS: ReadonlyArray<readonly [string, Knex.Migration]> = [
   ['20261201000000_foundation', foundation],
+  ['20261202000000_selling', selling],
 ];
