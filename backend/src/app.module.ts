@@ -10,6 +10,7 @@ import { AuthModule } from './auth/auth.module';
 import { BranchesModule } from './branches/branches.module';
 import { UsersModule } from './users/users.module';
 import { CalculatorsModule } from './calculators/calculators.module';
+import { LeadsModule } from './leads/leads.module';
 import { HealthController } from './health/health.controller';
 
 @Module({})
@@ -35,6 +36,7 @@ export class AppModule {
         BranchesModule,
         UsersModule,
         CalculatorsModule,
+        LeadsModule,
       ],
       controllers: [HealthController],
       providers: [

@@ -7,3 +7,5 @@ export * from './permissions/scope';
 export * from './api/types';
 export * from './calculators';
 export * from './deadlines';
+export * from './leads';
+export * from './api/leads';

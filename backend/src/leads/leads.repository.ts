@@ -1,0 +1,480 @@
+import { Inject, Injectable } from '@nestjs/common';
+import type { Knex } from 'knex';
+import {
+  addressKey,
+  emailKey,
+  NO_FACTS,
+  phoneKey,
+  wholeDaysBetween,
+  type DuplicateMatch,
+  type DuplicateReason,
+  type LeadActivity,
+  type LeadFacts,
+  type LeadInput,
+  type LeadStage,
+  type LeadSummary,
+  type LeadTransfer,
+  type StageTotal,
+} from '@loambook/common';
+import { KNEX } from '../database/database.module';
+import type { Db } from '../database/transaction';
+
+/** Which leads a person may list: every branch or some, and for a salesperson only their own. */
+export interface LeadScope {
+  branchIds: string[] | null;
+  salespersonId: string | null;
+}
+
+export interface PipelineFilter {
+  branchId?: string;
+  stages?: LeadStage[];
+  salespersonId?: string;
+  minAgeDays?: number;
+  maxAgeDays?: number;
+  minValue?: string;
+  maxValue?: string;
+  q?: string;
+  approvalPending?: boolean;
+  sort: 'age' | 'daysInStage' | 'value' | 'homeowner' | 'stage';
+  order: 'asc' | 'desc';
+  limit: number;
+  offset: number;
+}
+
+export interface LeadRow extends LeadSummary {
+  phonePrimary: string | null;
+  phoneSecondary: string | null;
+  email: string | null;
+  preferredContact: LeadInput['preferredContact'];
+  state: string;
+  postalCode: string;
+  yearBuilt: number | null;
+  foundationType: LeadInput['foundationType'];
+  source: string | null;
+  notes: string | null;
+  lostReason: string | null;
+}
+
+const SUMMARY_COLUMNS = [
+  'l.id',
+  'l.branch_id as branchId',
+  'b.code as branchCode',
+  'l.homeowner_name as homeownerName',
+  'l.address_line1 as addressLine1',
+  'l.city',
+  'l.stage',
+  'l.stage_changed_at as stageChangedAt',
+  'l.created_at as createdAt',
+  'l.value',
+  'l.salesperson_id as salespersonId',
+  'u.name as salespersonName',
+];
+
+const SORTS: Record<PipelineFilter['sort'], string> = {
+  age: 'l.created_at',
+  daysInStage: 'l.stage_changed_at',
+  value: 'l.value',
+  homeowner: 'l.homeowner_name',
+  stage: 'l.stage',
+};
+
+function toSummary(r: Record<string, unknown>, now: Date): LeadSummary {
+  const stageChangedAt = (r.stageChangedAt as Date).toISOString();
+  const createdAt = (r.createdAt as Date).toISOString();
+  const lastDay = r.lastDayToCancel as string | null;
+  return {
+    id: r.id as string,
+    branchId: r.branchId as string,
+    branchCode: r.branchCode as string,
+    homeownerName: r.homeownerName as string,
+    addressLine1: r.addressLine1 as string,
+    city: r.city as string,
+    stage: r.stage as LeadStage,
+    stageChangedAt,
+    createdAt,
+    daysInStage: wholeDaysBetween(stageChangedAt, now),
+    ageDays: wholeDaysBetween(createdAt, now),
+    value: r.value as string,
+    salespersonId: (r.salespersonId as string | null) ?? null,
+    salespersonName: (r.salespersonName as string | null) ?? null,
+    approvalPending: Boolean(r.approvalPending),
+    lastDayToCancel: lastDay,
+  };
+}
+
+@Injectable()
+export class LeadsRepository {
+  constructor(@Inject(KNEX) private readonly knex: Knex) {}
+
+  private applyScope(q: Knex.QueryBuilder, scope: LeadScope): Knex.QueryBuilder {
+    if (scope.branchIds) q.whereIn('l.branch_id', scope.branchIds);
+    if (scope.salespersonId) q.where('l.salesperson_id', scope.salespersonId);
+    return q;
+  }
+
+  private applyFilter(q: Knex.QueryBuilder, f: Partial<PipelineFilter>, db: Db, withStage = true) {
+    if (f.branchId) q.where('l.branch_id', f.branchId);
+    if (withStage && f.stages?.length) q.whereIn('l.stage', f.stages);
+    if (f.salespersonId) q.where('l.salesperson_id', f.salespersonId);
+    if (f.minAgeDays !== undefined)
+      q.where('l.created_at', '<=', db.raw(`now() - make_interval(days => ?)`, [f.minAgeDays]));
+    if (f.maxAgeDays !== undefined)
+      q.where('l.created_at', '>', db.raw(`now() - make_interval(days => ?)`, [f.maxAgeDays + 1]));
+    if (f.minValue) q.where('l.value', '>=', f.minValue);
+    if (f.maxValue) q.where('l.value', '<=', f.maxValue);
+    if (f.q) {
+      const like = `%${f.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+      const digits = phoneKey(f.q);
+      q.where((w) => {
+        w.whereILike('l.homeowner_name', like)
+          .orWhereILike('l.address_line1', like)
+          .orWhereILike('l.city', like);
+        w.orWhereILike('l.email', like);
+        if (digits.length >= 4) w.orWhere('l.phone_key', 'like', `%${digits}%`);
+      });
+    }
+    if (f.approvalPending !== undefined) {
+      const sub = db('approval_requests as ar').whereRaw('ar.lead_id = l.id').where('ar.status', 'pending');
+      if (f.approvalPending) q.whereExists(sub);
+      else q.whereNotExists(sub);
+    }
+    return q;
+  }
+
+  private summaryQuery(db: Db) {
+    return db('leads as l')
+      .join('branches as b', 'b.id', 'l.branch_id')
+      .leftJoin('users as u', 'u.id', 'l.salesperson_id')
+      .select(
+        ...SUMMARY_COLUMNS,
+        db.raw(
+          `exists (select 1 from approval_requests ar where ar.lead_id = l.id and ar.status = 'pending') as "approvalPending"`,
+        ),
+        // The cancellation clock, only while it runs (the window closes at the end of that day).
+        db.raw(
+          `(select to_char(c.last_day_to_cancel, 'YYYY-MM-DD') from contracts c
+             where c.lead_id = l.id and c.cancelled_at is null and c.last_day_to_cancel >= current_date
+             order by c.signed_at desc limit 1) as "lastDayToCancel"`,
+        ),
+      );
+  }
+
+  async pipeline(scope: LeadScope, f: PipelineFilter, db: Db = this.knex) {
+    const now = new Date();
+    const rows = this.applyFilter(this.applyScope(this.summaryQuery(db), scope), f, db)
+      .orderBy(SORTS[f.sort], f.order)
+      .orderBy('l.id')
+      .limit(f.limit)
+      .offset(f.offset);
+    const count = this.applyFilter(this.applyScope(db('leads as l'), scope), f, db)
+      .count({ n: '*' })
+      .first();
+    const stages = this.applyFilter(this.applyScope(db('leads as l'), scope), f, db, false)
+      .select('l.stage')
+      .count({ count: '*' })
+      .sum({ value: 'l.value' })
+      .groupBy('l.stage');
+    const [items, total, stageRows] = await Promise.all([rows, count, stages]);
+    return {
+      items: (items as Record<string, unknown>[]).map((r) => toSummary(r, now)),
+      total: Number((total as { n: string } | undefined)?.n ?? 0),
+      stages: (stageRows as { stage: LeadStage; count: string; value: string | null }[]).map(
+        (s): StageTotal => ({ stage: s.stage, count: Number(s.count), value: s.value ?? '0.00' }),
+      ),
+    };
+  }
+
+  async findById(id: string, db: Db = this.knex): Promise<LeadRow | undefined> {
+    const r = await this.summaryQuery(db)
+      .select(
+        'l.phone_primary as phonePrimary',
+        'l.phone_secondary as phoneSecondary',
+        'l.email',
+        'l.preferred_contact as preferredContact',
+        'l.state',
+        'l.postal_code as postalCode',
+        'l.year_built as yearBuilt',
+        'l.foundation_type as foundationType',
+        'l.source',
+        'l.notes',
+        'l.lost_reason as lostReason',
+      )
+      .where('l.id', id)
+      .first();
+    if (!r) return undefined;
+    const summary = toSummary(r, new Date());
+    return {
+      ...summary,
+      phonePrimary: r.phonePrimary,
+      phoneSecondary: r.phoneSecondary,
+      email: r.email,
+      preferredContact: r.preferredContact,
+      state: r.state,
+      postalCode: r.postalCode,
+      yearBuilt: r.yearBuilt,
+      foundationType: r.foundationType,
+      source: r.source,
+      notes: r.notes,
+      lostReason: r.lostReason,
+    };
+  }
+
+  async insert(
+    input: LeadInput & { salespersonId: string | null; createdBy: string },
+    db: Db,
+  ): Promise<string> {
+    const [row] = await db('leads')
+      .insert({
+        branch_id: input.branchId,
+        salesperson_id: input.salespersonId,
+        homeowner_name: input.homeownerName,
+        phone_primary: input.phonePrimary ?? null,
+        phone_secondary: input.phoneSecondary ?? null,
+        email: input.email ?? null,
+        preferred_contact: input.preferredContact,
+        address_line1: input.addressLine1,
+        city: input.city,
+        state: input.state,
+        postal_code: input.postalCode,
+        year_built: input.yearBuilt ?? null,
+        foundation_type: input.foundationType ?? null,
+        source: input.source ?? null,
+        notes: input.notes ?? null,
+        created_by: input.createdBy,
+      })
+      .returning('id');
+    return row.id;
+  }
+
+  async update(id: string, patch: Partial<LeadInput>, db: Db): Promise<void> {
+    const columns: Record<string, keyof LeadInput> = {
+      salesperson_id: 'salespersonId',
+      homeowner_name: 'homeownerName',
+      phone_primary: 'phonePrimary',
+      phone_secondary: 'phoneSecondary',
+      email: 'email',
+      preferred_contact: 'preferredContact',
+      address_line1: 'addressLine1',
+      city: 'city',
+      state: 'state',
+      postal_code: 'postalCode',
+      year_built: 'yearBuilt',
+      foundation_type: 'foundationType',
+      source: 'source',
+      notes: 'notes',
+    };
+    const row: Record<string, unknown> = { updated_at: db.fn.now() };
+    for (const [col, key] of Object.entries(columns)) if (patch[key] !== undefined) row[col] = patch[key];
+    await db('leads').where({ id }).update(row);
+  }
+
+  async setStage(id: string, stage: LeadStage, lostReason: string | null, db: Db): Promise<void> {
+    await db('leads')
+      .where({ id })
+      .update({ stage, lost_reason: lostReason, stage_changed_at: db.fn.now(), updated_at: db.fn.now() });
+  }
+
+  async setBranch(id: string, branchId: string, db: Db): Promise<void> {
+    await db('leads')
+      .where({ id })
+      .update({ branch_id: branchId, salesperson_id: null, updated_at: db.fn.now() });
+  }
+
+  async addActivity(
+    a: {
+      leadId: string;
+      branchId: string;
+      kind: string;
+      body?: string | null;
+      data?: object;
+      actorId: string | null;
+    },
+    db: Db,
+  ): Promise<void> {
+    await db('lead_activities').insert({
+      lead_id: a.leadId,
+      branch_id: a.branchId,
+      kind: a.kind,
+      body: a.body ?? null,
+      data: JSON.stringify(a.data ?? {}),
+      actor_id: a.actorId,
+    });
+  }
+
+  async activities(leadId: string, db: Db = this.knex): Promise<LeadActivity[]> {
+    const rows = await db('lead_activities as a')
+      .join('branches as b', 'b.id', 'a.branch_id')
+      .leftJoin('users as u', 'u.id', 'a.actor_id')
+      .select(
+        'a.id',
+        'a.kind',
+        'a.body',
+        'a.data',
+        'u.name as actorName',
+        'b.code as branchCode',
+        'a.created_at as createdAt',
+      )
+      .where('a.lead_id', leadId)
+      .orderBy('a.created_at', 'desc')
+      .orderBy('a.id');
+    return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
+  }
+
+  async addTransfer(
+    t: { leadId: string; from: string; to: string; note: string | null; by: string },
+    db: Db,
+  ) {
+    await db('lead_transfers').insert({
+      lead_id: t.leadId,
+      from_branch_id: t.from,
+      to_branch_id: t.to,
+      note: t.note,
+      transferred_by: t.by,
+    });
+  }
+
+  async transfers(leadId: string, db: Db = this.knex): Promise<LeadTransfer[]> {
+    const rows = await db('lead_transfers as t')
+      .join('branches as f', 'f.id', 't.from_branch_id')
+      .join('branches as o', 'o.id', 't.to_branch_id')
+      .join('users as u', 'u.id', 't.transferred_by')
+      .select(
+        't.id',
+        'f.code as fromBranchCode',
+        'o.code as toBranchCode',
+        't.note',
+        'u.name as transferredByName',
+        't.created_at as createdAt',
+      )
+      .where('t.lead_id', leadId)
+      .orderBy('t.created_at');
+    return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
+  }
+
+  /** Branches a lead has been transferred out of: their managers keep read access to its history. */
+  async transferredFrom(leadId: string, db: Db = this.knex): Promise<string[]> {
+    return (await db('lead_transfers').distinct('from_branch_id').where({ lead_id: leadId })).map(
+      (r: { from_branch_id: string }) => r.from_branch_id,
+    );
+  }
+
+  async transferredOut(branchIds: string[] | null, db: Db = this.knex) {
+    const q = db('lead_transfers as t')
+      .join('leads as l', 'l.id', 't.lead_id')
+      .join('branches as f', 'f.id', 't.from_branch_id')
+      .join('branches as o', 'o.id', 't.to_branch_id')
+      .select(
+        'l.id',
+        'l.homeowner_name as homeownerName',
+        'l.address_line1 as addressLine1',
+        'l.city',
+        'l.stage',
+        'f.code as fromBranchCode',
+        'o.code as toBranchCode',
+        't.created_at as transferredAt',
+      )
+      .orderBy('t.created_at', 'desc')
+      .limit(200);
+    if (branchIds) q.whereIn('t.from_branch_id', branchIds);
+    return (await q).map((r) => ({ ...r, transferredAt: r.transferredAt.toISOString() }));
+  }
+
+  async duplicates(
+    keys: { address?: string; phone?: string; email?: string | null; excludeId?: string },
+    db: Db = this.knex,
+  ): Promise<(DuplicateMatch & { branchId: string; salespersonId: string | null })[]> {
+    if (!keys.address && !keys.phone && !keys.email) return [];
+    const q = db('leads as l')
+      .join('branches as b', 'b.id', 'l.branch_id')
+      .select(
+        'l.id',
+        'l.homeowner_name as homeownerName',
+        'l.address_line1 as addressLine1',
+        'l.city',
+        'l.stage',
+        'b.code as branchCode',
+        'l.branch_id as branchId',
+        'l.salesperson_id as salespersonId',
+        'l.address_key',
+        'l.phone_key',
+        'l.email_key',
+      )
+      .where((w) => {
+        if (keys.address) w.orWhere('l.address_key', keys.address);
+        if (keys.phone) w.orWhere('l.phone_key', keys.phone);
+        if (keys.email) w.orWhere('l.email_key', keys.email);
+      })
+      .orderBy('l.created_at', 'desc')
+      .limit(20);
+    if (keys.excludeId) q.whereNot('l.id', keys.excludeId);
+    return (await q).map((r) => {
+      const reasons: DuplicateReason[] = [];
+      if (keys.address && r.address_key === keys.address) reasons.push('address');
+      if (keys.phone && r.phone_key === keys.phone) reasons.push('phone');
+      if (keys.email && r.email_key === keys.email) reasons.push('email');
+      return {
+        id: r.id,
+        homeownerName: r.homeownerName,
+        addressLine1: r.addressLine1,
+        city: r.city,
+        stage: r.stage,
+        branchCode: r.branchCode,
+        branchId: r.branchId,
+        salespersonId: r.salespersonId,
+        reasons,
+      };
+    });
+  }
+
+  /** What the stage rules need to know, read from the records of the later steps. */
+  async facts(leadId: string, db: Db = this.knex): Promise<LeadFacts> {
+    const r = await db
+      .select(
+        db.raw(
+          `exists (select 1 from inspections where lead_id = ? and status in ('booked', 'completed')) as "booked"`,
+          [leadId],
+        ),
+        db.raw(
+          `exists (select 1 from inspections where lead_id = ? and status = 'completed') as "inspected"`,
+          [leadId],
+        ),
+        db.raw(`exists (select 1 from proposals where lead_id = ? and sent_at is not null) as "sent"`, [
+          leadId,
+        ]),
+        db.raw(`exists (select 1 from contracts where lead_id = ?) as "signed"`, [leadId]),
+        db.raw(
+          `exists (select 1 from contracts where lead_id = ? and cancelled_at is not null) as "cancelled"`,
+          [leadId],
+        ),
+      )
+      .first();
+    return {
+      ...NO_FACTS,
+      hasBookedInspection: r.booked,
+      hasCompletedInspection: r.inspected,
+      hasSentProposal: r.sent,
+      hasSignedContract: r.signed,
+      contractCancelled: r.cancelled,
+    };
+  }
+
+  async isSalespersonOf(userId: string, branchId: string, db: Db = this.knex): Promise<boolean> {
+    const row = await db('users as u')
+      .join('user_branches as ub', 'ub.user_id', 'u.id')
+      .where({ 'u.id': userId, 'ub.branch_id': branchId, 'u.active': true })
+      .whereIn('u.role', ['salesperson', 'branch_manager', 'owner'])
+      .first('u.id');
+    return !!row;
+  }
+}
+
+export const duplicateKeys = (i: {
+  addressLine1?: string;
+  postalCode?: string;
+  phone?: string | null;
+  email?: string | null;
+}) => ({
+  address: i.addressLine1 && i.postalCode ? addressKey(i.addressLine1, i.postalCode) : undefined,
+  phone: i.phone && phoneKey(i.phone).length >= 7 ? phoneKey(i.phone) : undefined,
+  email: emailKey(i.email),
+});

@@ -1,0 +1,237 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import {
+  makeBranch,
+  makeUser,
+  startTestApp,
+  tokenFor,
+  type TestApp,
+  type TestUser,
+} from './support/test-app';
+
+describe('leads and the pipeline', () => {
+  let t: TestApp;
+  let north: string;
+  let south: string;
+  let seller: TestUser;
+  let other: TestUser;
+  let tokens: Record<
+    'seller' | 'other' | 'manager' | 'southManager' | 'owner' | 'bookkeeper' | 'crew',
+    string
+  >;
+
+  beforeAll(async () => {
+    t = await startTestApp();
+    north = await makeBranch(t.db, { name: 'North' });
+    south = await makeBranch(t.db, { name: 'South' });
+    seller = await makeUser(t.db, 'salesperson', [north], { name: 'Sela Seller' });
+    other = await makeUser(t.db, 'salesperson', [north], { name: 'Otis Other' });
+    tokens = {
+      seller: await tokenFor(t, seller),
+      other: await tokenFor(t, other),
+      manager: await tokenFor(t, await makeUser(t.db, 'branch_manager', [north])),
+      southManager: await tokenFor(t, await makeUser(t.db, 'branch_manager', [south])),
+      owner: await tokenFor(t, await makeUser(t.db, 'owner')),
+      bookkeeper: await tokenFor(t, await makeUser(t.db, 'bookkeeper')),
+      crew: await tokenFor(t, await makeUser(t.db, 'crew_lead', [north])),
+    };
+  });
+  afterAll(() => t.close());
+
+  const as = (who: keyof typeof tokens) => ({
+    get: (url: string) => t.http.get(url).set('Authorization', `Bearer ${tokens[who]}`),
+    post: (url: string, body: object) =>
+      t.http.post(url).set('Authorization', `Bearer ${tokens[who]}`).send(body),
+    patch: (url: string, body: object) =>
+      t.http.patch(url).set('Authorization', `Bearer ${tokens[who]}`).send(body),
+  });
+
+  let n = 0;
+  const leadInput = (over: Record<string, unknown> = {}) => ({
+    branchId: north,
+    homeownerName: `Homeowner ${++n}`,
+    phonePrimary: `555-01${String(n % 100).padStart(2, '0')}`,
+    email: `home${n}.${Date.now()}@example.com`,
+    preferredContact: 'phone',
+    addressLine1: `${100 + n} Sinkhole Lane`,
+    city: 'Testerton',
+    state: 'FL',
+    postalCode: '32001',
+    foundationType: 'slab',
+    source: 'Referral',
+    ...over,
+  });
+
+  async function createLead(who: keyof typeof tokens = 'seller', over: Record<string, unknown> = {}) {
+    const res = await as(who).post('/api/leads', leadInput(over));
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    return res.body;
+  }
+
+  it('a salesperson enters a lead for themselves; the timeline records it', async () => {
+    const { lead, possibleDuplicates } = await createLead();
+    expect(lead.salespersonId).toBe(seller.id);
+    expect(lead.stage).toBe('new');
+    expect(lead.value).toBe('0.00');
+    expect(lead.activities[0]).toMatchObject({
+      kind: 'note',
+      body: 'Lead entered.',
+      actorName: 'Sela Seller',
+    });
+    expect(possibleDuplicates).toEqual({ matches: [], otherBranchMatches: 0 });
+  });
+
+  it('flags a possible duplicate by address, phone or e-mail', async () => {
+    const { lead: first } = await createLead('seller', {
+      addressLine1: '7 Marl Court',
+      phonePrimary: '(555) 010-7777',
+    });
+    const { possibleDuplicates } = await createLead('seller', {
+      addressLine1: '7 marl ct.'.replace('ct.', 'Court'),
+      phonePrimary: '555.010.7777',
+    });
+    expect(possibleDuplicates.matches).toEqual([
+      expect.objectContaining({ id: first.id, reasons: ['address', 'phone'] }),
+    ]);
+    // Another salesperson's lead is not shown to them, only counted.
+    const check = await as('other').post('/api/leads/duplicate-check', { phone: '5550107777' });
+    expect(check.body).toEqual({ matches: [], otherBranchMatches: 2 });
+    const mgr = await as('manager').post('/api/leads/duplicate-check', { phone: '5550107777' });
+    expect(mgr.body.matches).toHaveLength(2);
+  });
+
+  it('needs a phone or an e-mail, and validates the property', async () => {
+    const res = await as('seller').post('/api/leads', leadInput({ phonePrimary: null, email: null }));
+    expect(res.status).toBe(400);
+    expect(res.body.details[0].field).toBe('phonePrimary');
+    const bad = await as('seller').post(
+      '/api/leads',
+      leadInput({ postalCode: '123', foundationType: 'mud', yearBuilt: 1500 }),
+    );
+    expect(bad.status).toBe(400);
+    expect(bad.body.details.map((d: { field: string }) => d.field)).toEqual(
+      expect.arrayContaining(['postalCode', 'foundationType', 'yearBuilt']),
+    );
+  });
+
+  it('isolates branches and salespeople: 404 outside, 403 for a role that may never', async () => {
+    const { lead } = await createLead();
+    expect((await as('other').get(`/api/leads/${lead.id}`)).status).toBe(404);
+    expect((await as('southManager').get(`/api/leads/${lead.id}`)).status).toBe(404);
+    expect((await as('manager').get(`/api/leads/${lead.id}`)).status).toBe(200);
+    expect((await as('bookkeeper').get(`/api/leads/${lead.id}`)).status).toBe(200);
+    expect((await as('bookkeeper').patch(`/api/leads/${lead.id}`, { notes: 'x' })).status).toBe(403);
+    expect((await as('crew').get(`/api/leads/${lead.id}`)).status).toBe(403);
+    expect((await as('seller').post('/api/leads', leadInput({ branchId: south }))).status).toBe(403);
+  });
+
+  it('refuses moves whose precondition is missing with 409 and a code', async () => {
+    const { lead } = await createLead();
+    const jump = await as('seller').post(`/api/leads/${lead.id}/stage`, { to: 'inspected' });
+    expect(jump.status).toBe(409);
+    expect(jump.body.code).toBe('LEAD.INVALID_TRANSITION');
+    const book = await as('seller').post(`/api/leads/${lead.id}/stage`, { to: 'inspection_booked' });
+    expect(book.status).toBe(409);
+    expect(book.body.code).toBe('LEAD.NO_INSPECTION_BOOKED');
+    const lost = await as('seller').post(`/api/leads/${lead.id}/stage`, { to: 'lost' });
+    expect(lost.body.code).toBe('LEAD.LOST_REASON_REQUIRED');
+    const ok = await as('seller').post(`/api/leads/${lead.id}/stage`, {
+      to: 'lost',
+      reason: 'Went with a cheaper quote',
+    });
+    expect(ok.status).toBe(200);
+    expect(ok.body).toMatchObject({ stage: 'lost', lostReason: 'Went with a cheaper quote' });
+    expect(ok.body.activities[0]).toMatchObject({ kind: 'stage_change', data: { from: 'new', to: 'lost' } });
+  });
+
+  it('lists the pipeline with paging, filters, search and per-stage totals', async () => {
+    const branch = await makeBranch(t.db, { name: 'Pipeline' });
+    const mgr = await tokenFor(t, await makeUser(t.db, 'branch_manager', [branch]));
+    const sp = await makeUser(t.db, 'salesperson', [branch]);
+    for (let i = 0; i < 7; i++) {
+      const res = await t.http
+        .post('/api/leads')
+        .set('Authorization', `Bearer ${mgr}`)
+        .send(
+          leadInput({
+            branchId: branch,
+            salespersonId: sp.id,
+            homeownerName: i === 3 ? 'Quillon Vasquez' : `Pipe ${i}`,
+          }),
+        );
+      expect(res.status).toBe(201);
+    }
+    await t.db('leads').where({ branch_id: branch }).update({ value: '1000.50' });
+    await t
+      .db('leads')
+      .where({ branch_id: branch, homeowner_name: 'Pipe 0' })
+      .update({ stage: 'inspected', value: '9999.99' });
+    const get = (qs: string) =>
+      t.http.get(`/api/leads?branchId=${branch}&${qs}`).set('Authorization', `Bearer ${mgr}`);
+
+    const page1 = await get('pageSize=10&sort=value&order=desc');
+    expect(page1.status).toBe(200);
+    expect(page1.body.total).toBe(7);
+    expect(page1.body.items[0].homeownerName).toBe('Pipe 0');
+    expect(page1.body.stages).toEqual(
+      expect.arrayContaining([
+        { stage: 'new', count: 6, value: '6003.00' },
+        { stage: 'inspected', count: 1, value: '9999.99' },
+      ]),
+    );
+    const paged = await get('pageSize=10&page=1&stage=new');
+    expect(paged.body.items).toHaveLength(6);
+    expect(paged.body.stages).toHaveLength(2); // totals ignore the stage filter
+    expect(
+      (await get('q=quillon')).body.items.map((l: { homeownerName: string }) => l.homeownerName),
+    ).toEqual(['Quillon Vasquez']);
+    expect((await get('minValue=5000')).body.total).toBe(1);
+    expect((await get('minAgeDays=1')).body.total).toBe(0);
+    expect((await get('pageSize=7')).status).toBe(400);
+  });
+
+  it('a salesperson’s pipeline holds only their own leads', async () => {
+    await createLead('other');
+    const res = await as('seller').get(`/api/leads?pageSize=100`);
+    expect(res.body.items.length).toBeGreaterThan(0);
+    expect(res.body.items.every((l: { salespersonId: string }) => l.salespersonId === seller.id)).toBe(true);
+  });
+
+  it('a manager transfers a lead; both managers see its history, only the new branch may change it', async () => {
+    const { lead } = await createLead();
+    const res = await as('manager').post(`/api/leads/${lead.id}/transfer`, {
+      branchId: south,
+      note: 'Closer to their office',
+    });
+    expect(res.status).toBe(200);
+    expect(res.body.branchId).toBe(south);
+    expect(res.body.salespersonId).toBeNull();
+    expect(res.body.transfers).toHaveLength(1);
+    const southView = await as('southManager').get(`/api/leads/${lead.id}`);
+    expect(southView.status).toBe(200);
+    expect(southView.body.readOnly).toBe(false);
+    expect(southView.body.activities.some((a: { kind: string }) => a.kind === 'transfer')).toBe(true);
+    const northView = await as('manager').get(`/api/leads/${lead.id}`);
+    expect(northView.status).toBe(200);
+    expect(northView.body.readOnly).toBe(true);
+    expect((await as('manager').patch(`/api/leads/${lead.id}`, { notes: 'still mine?' })).status).toBe(403);
+    expect((await as('seller').get(`/api/leads/${lead.id}`)).status).toBe(404);
+    const out = await as('manager').get('/api/leads/transferred-out');
+    expect(out.body.map((l: { id: string }) => l.id)).toContain(lead.id);
+    expect((await as('seller').post(`/api/leads/${lead.id}/transfer`, { branchId: north })).status).toBe(404);
+  });
+
+  it('logs calls and notes on the timeline; a salesperson cannot reassign', async () => {
+    const { lead } = await createLead();
+    const res = await as('seller').post(`/api/leads/${lead.id}/activities`, {
+      kind: 'call',
+      body: 'Left a voicemail',
+    });
+    expect(res.status).toBe(201);
+    expect(res.body.activities[0]).toMatchObject({ kind: 'call', body: 'Left a voicemail' });
+    const reassign = await as('seller').patch(`/api/leads/${lead.id}`, { salespersonId: other.id });
+    expect(reassign.status).toBe(403);
+    const mgr = await as('manager').patch(`/api/leads/${lead.id}`, { salespersonId: other.id });
+    expect(mgr.status).toBe(200);
+    expect(mgr.body.salespersonName).toBe('Otis Other');
+  });
+});

@@ -1,0 +1,3 @@
+export * from './pipeline';
+export * from './duplicates';
+export * from './lead-fields';
