@@ -8,6 +8,9 @@ import type { Knex } from 'knex';
  */
 export async function up(knex: Knex): Promise<void> {
   await knex.raw(`
+    -- Trigram indexes make the pipeline's free-text search an index lookup (pg_trgm ships with PostgreSQL).
+    create extension if not exists pg_trgm;
+
     create table leads (
       id uuid primary key default gen_random_uuid(),
       branch_id uuid not null references branches(id),
@@ -36,13 +39,57 @@ export async function up(knex: Knex): Promise<void> {
       email_key text generated always as (lower(email)) stored,
       address_key text generated always as (
         lower(regexp_replace(address_line1, '[^A-Za-z0-9]', '', 'g')) || ':' || left(postal_code, 5)) stored,
+      search_text text generated always as (
+        lower(homeowner_name || ' ' || address_line1 || ' ' || city || ' ' || coalesce(email, ''))) stored,
       created_by uuid references users(id),
       created_at timestamptz not null default now(),
       updated_at timestamptz not null default now(),
       constraint lost_needs_reason check (stage <> 'lost' or lost_reason is not null)
     );
-    create index leads_branch_stage_idx on leads (branch_id, stage, stage_changed_at desc);
+    -- The pipeline: a page in the default order straight from an index, and per-stage totals from a
+    -- covering index (index-only scans once autovacuum has visited the table).
+    create index leads_branch_stage_changed_idx on leads (branch_id, stage_changed_at, id);
+    create index leads_stage_changed_idx on leads (stage_changed_at, id);
+    create index leads_branch_stage_value_idx on leads (branch_id, stage) include (value, created_at);
+    create index leads_branch_value_idx on leads (branch_id, value desc, id);
     create index leads_branch_created_idx on leads (branch_id, created_at desc);
+    create index leads_search_trgm_idx on leads using gin (search_text gin_trgm_ops);
+    create index leads_phone_trgm_idx on leads using gin (phone_key gin_trgm_ops);
+
+    -- Per-stage counts and value, kept by a trigger, so the pipeline's totals never scan the leads.
+    create table lead_stage_totals (
+      branch_id uuid not null references branches(id),
+      salesperson_key uuid not null,
+      stage text not null,
+      -- No CHECK here: PostgreSQL checks the proposed row of an upsert before it sees the conflict.
+      lead_count bigint not null default 0,
+      value_total numeric(16,2) not null default 0,
+      primary key (branch_id, salesperson_key, stage)
+    );
+    create function lead_stage_totals_apply(b uuid, sp uuid, st text, n integer, v numeric) returns void
+    language sql as $$
+      insert into lead_stage_totals (branch_id, salesperson_key, stage, lead_count, value_total)
+      values (b, coalesce(sp, '00000000-0000-0000-0000-000000000000'), st, n, n * v)
+      on conflict (branch_id, salesperson_key, stage) do update
+        set lead_count = lead_stage_totals.lead_count + excluded.lead_count,
+            value_total = lead_stage_totals.value_total + excluded.value_total;
+    $$;
+    create function lead_stage_totals_track() returns trigger language plpgsql as $$
+    begin
+      if tg_op in ('UPDATE', 'DELETE') then
+        perform lead_stage_totals_apply(old.branch_id, old.salesperson_id, old.stage, -1, old.value);
+      end if;
+      if tg_op in ('INSERT', 'UPDATE') then
+        perform lead_stage_totals_apply(new.branch_id, new.salesperson_id, new.stage, 1, new.value);
+      end if;
+      return null;
+    end $$;
+    create trigger leads_stage_totals after insert or delete on leads
+      for each row execute function lead_stage_totals_track();
+    create trigger leads_stage_totals_update after update of branch_id, salesperson_id, stage, value on leads
+      for each row when ((old.branch_id, old.salesperson_id, old.stage, old.value)
+                         is distinct from (new.branch_id, new.salesperson_id, new.stage, new.value))
+      execute function lead_stage_totals_track();
     create index leads_salesperson_idx on leads (salesperson_id, stage);
     create index leads_phone_key_idx on leads (phone_key) where phone_key <> '';
     create index leads_email_key_idx on leads (email_key) where email_key is not null;
@@ -283,5 +330,8 @@ export async function down(knex: Knex): Promise<void> {
     drop table contracts, signing_links, approval_requests, proposal_lines, proposal_options, proposals,
       price_book_items, inspection_photos, survey_points, inspections, lead_transfers, lead_activities, leads cascade;
     drop function contracts_terms_frozen();
+    drop table lead_stage_totals;
+    drop function lead_stage_totals_track();
+    drop function lead_stage_totals_apply(uuid, uuid, text, integer, numeric);
   `);
 }

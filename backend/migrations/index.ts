@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import * as foundation from './20261201000000_foundation';
 import * as selling from './20261202000000_selling';
+import * as proposalPricing from './20261202014000_proposal_pricing';
 
 /**
  * Every migration, in order. Listed here (not found on disk) so that the compiled server and the tests,
@@ -10,4 +11,5 @@ import * as selling from './20261202000000_selling';
 export const MIGRATIONS: ReadonlyArray<readonly [string, Knex.Migration]> = [
   ['20261201000000_foundation', foundation],
   ['20261202000000_selling', selling],
+  ['20261202014000_proposal_pricing', proposalPricing],
 ];

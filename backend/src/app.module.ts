@@ -11,6 +11,9 @@ import { BranchesModule } from './branches/branches.module';
 import { UsersModule } from './users/users.module';
 import { CalculatorsModule } from './calculators/calculators.module';
 import { LeadsModule } from './leads/leads.module';
+import { StorageModule } from './storage/storage.module';
+import { InspectionsModule } from './inspections/inspections.module';
+import { ProposalsModule } from './proposals/proposals.module';
 import { HealthController } from './health/health.controller';
 
 @Module({})
@@ -36,7 +39,10 @@ export class AppModule {
         BranchesModule,
         UsersModule,
         CalculatorsModule,
+        StorageModule,
+        InspectionsModule,
         LeadsModule,
+        ProposalsModule,
       ],
       controllers: [HealthController],
       providers: [

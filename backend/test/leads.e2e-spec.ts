@@ -234,4 +234,20 @@ describe('leads and the pipeline', () => {
     expect(mgr.status).toBe(200);
     expect(mgr.body.salespersonName).toBe('Otis Other');
   });
+
+  it('keeps lead_stage_totals equal to the leads themselves after every kind of change', async () => {
+    const { lead } = await createLead();
+    await t.db('leads').where({ id: lead.id }).update({ value: '123.45', stage: 'inspected' });
+    await t.db('leads').where({ id: lead.id }).update({ salesperson_id: other.id });
+    await t.db('leads').where({ id: lead.id }).update({ branch_id: south, salesperson_id: null });
+    const actual = await t.db.raw(`
+      select branch_id, coalesce(salesperson_id, '00000000-0000-0000-0000-000000000000') as sp, stage,
+             count(*)::bigint as n, sum(value) as v
+      from leads group by 1, 2, 3 order by 1, 2, 3`);
+    const kept = await t.db.raw(`
+      select branch_id, salesperson_key as sp, stage, lead_count as n, value_total as v
+      from lead_stage_totals where lead_count <> 0 or value_total <> 0 order by 1, 2, 3`);
+    expect(kept.rows).toEqual(actual.rows);
+    expect(actual.rows.length).toBeGreaterThan(3);
+  });
 });

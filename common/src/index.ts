@@ -9,3 +9,5 @@ export * from './calculators';
 export * from './deadlines';
 export * from './leads';
 export * from './api/leads';
+export * from './inspections';
+export * from './pricing';

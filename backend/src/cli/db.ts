@@ -7,6 +7,7 @@ import { loadConfig } from '../config/config';
 import { knexConfig } from '../database/knex-config';
 import { migrateLatest } from '../database/migrate';
 import { seed } from '../../../seeds/01-demo-company';
+import { seed as seedPriceBook } from '../../../seeds/02-demo-price-book';
 
 async function main(args: string[]): Promise<void> {
   const config = loadConfig();
@@ -18,6 +19,7 @@ async function main(args: string[]): Promise<void> {
     }
     if (args.includes('seed')) {
       await seed(db);
+      await seedPriceBook(db);
       console.log('Demo company is in place.');
     }
   } finally {

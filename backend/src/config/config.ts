@@ -12,6 +12,15 @@ export interface AppConfig {
   loginThrottle: { limit: number; ttlMs: number };
   invitationTtlHours: number;
   mail: { host: string; port: number; from: string };
+  /** File storage through the S3 API (s3rver locally; any S3-compatible service in production). */
+  s3: {
+    endpoint: string;
+    bucket: string;
+    region: string;
+    accessKeyId: string;
+    secretAccessKey: string;
+    forcePathStyle: boolean;
+  };
   logLevel: string;
   /** Where the built screens are; served by the same process when present. */
   frontendDist: string | null;
@@ -50,6 +59,16 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
       host: env.SMTP_HOST ?? '127.0.0.1',
       port: int(env.SMTP_PORT, 1025, 'SMTP_PORT'),
       from: env.MAIL_FROM ?? 'Loambook <no-reply@loambook.example.com>',
+    },
+    s3: {
+      // The local s3rver that `npm start` launches (scripts/lib/fakes.mjs, port S3_PORT), with s3rver's own keys.
+      endpoint: env.S3_ENDPOINT ?? `http://127.0.0.1:${int(env.S3_PORT, 4569, 'S3_PORT')}`,
+      bucket: env.S3_BUCKET ?? 'loambook-files',
+      region: env.S3_REGION ?? 'us-east-1',
+      accessKeyId: env.S3_ACCESS_KEY_ID ?? 'S3RVER',
+      secretAccessKey: env.S3_SECRET_ACCESS_KEY ?? 'S3RVER',
+      // Path-style URLs (endpoint/bucket/key) work with s3rver and every S3-compatible service.
+      forcePathStyle: env.S3_FORCE_PATH_STYLE !== 'false',
     },
     logLevel: env.LOG_LEVEL ?? 'info',
     frontendDist: env.FRONTEND_DIST === '' ? null : (env.FRONTEND_DIST ?? null),

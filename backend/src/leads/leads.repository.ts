@@ -5,6 +5,7 @@ import {
   emailKey,
   NO_FACTS,
   phoneKey,
+  toMoneyString,
   wholeDaysBetween,
   type DuplicateMatch,
   type DuplicateReason,
@@ -161,27 +162,59 @@ export class LeadsRepository {
 
   async pipeline(scope: LeadScope, f: PipelineFilter, db: Db = this.knex) {
     const now = new Date();
-    const rows = this.applyFilter(this.applyScope(this.summaryQuery(db), scope), f, db)
+    // The page's ids first (an index walk in the sort order), then the display columns and the per-row
+    // look-ups for those rows only; computing them before the sort would touch every matching lead.
+    const page = this.applyFilter(this.applyScope(db('leads as l').select('l.id', `${SORTS[f.sort]} as sort_key`), scope), f, db)
       .orderBy(SORTS[f.sort], f.order)
-      .orderBy('l.id')
+      .orderBy('l.id', f.order)
       .limit(f.limit)
       .offset(f.offset);
-    const count = this.applyFilter(this.applyScope(db('leads as l'), scope), f, db)
-      .count({ n: '*' })
-      .first();
-    const stages = this.applyFilter(this.applyScope(db('leads as l'), scope), f, db, false)
-      .select('l.stage')
-      .count({ count: '*' })
-      .sum({ value: 'l.value' })
-      .groupBy('l.stage');
-    const [items, total, stageRows] = await Promise.all([rows, count, stages]);
-    return {
-      items: (items as Record<string, unknown>[]).map((r) => toSummary(r, now)),
-      total: Number((total as { n: string } | undefined)?.n ?? 0),
-      stages: (stageRows as { stage: LeadStage; count: string; value: string | null }[]).map(
-        (s): StageTotal => ({ stage: s.stage, count: Number(s.count), value: s.value ?? '0.00' }),
-      ),
-    };
+    const rows = this.summaryQuery(db)
+      .with('page', page)
+      .join('page as p', 'p.id', 'l.id')
+      .orderBy('p.sort_key', f.order)
+      .orderBy('l.id', f.order);
+    const [items, totals] = await Promise.all([rows, this.totals(scope, f, db)]);
+    return { items: (items as Record<string, unknown>[]).map((r) => toSummary(r, now)), ...totals };
+  }
+
+  /**
+   * Per-stage counts and value, and the matching total. Filtered by branch, salesperson and stage only,
+   * they come from lead_stage_totals (kept by a trigger); any other filter aggregates the leads themselves.
+   */
+  private async totals(scope: LeadScope, f: PipelineFilter, db: Db): Promise<{ total: number; stages: StageTotal[] }> {
+    const simple =
+      f.minAgeDays === undefined && f.maxAgeDays === undefined && !f.minValue && !f.maxValue && !f.q &&
+      f.approvalPending === undefined;
+    type Row = { stage: LeadStage; count: string; value: string | null };
+    let rows: Row[];
+    if (simple) {
+      const q = db('lead_stage_totals as t')
+        .select('t.stage')
+        .sum({ count: 't.lead_count' })
+        .sum({ value: 't.value_total' })
+        .where('t.lead_count', '>', 0)
+        .groupBy('t.stage');
+      if (scope.branchIds) q.whereIn('t.branch_id', scope.branchIds);
+      if (f.branchId) q.where('t.branch_id', f.branchId);
+      const sp = scope.salespersonId ?? f.salespersonId;
+      if (sp) q.where('t.salesperson_key', sp);
+      if (scope.salespersonId && f.salespersonId && f.salespersonId !== scope.salespersonId) q.whereRaw('false');
+      rows = (await q) as Row[];
+    } else {
+      rows = (await this.applyFilter(this.applyScope(db('leads as l'), scope), f, db, false)
+        .select('l.stage')
+        .count({ count: '*' })
+        .sum({ value: 'l.value' })
+        .groupBy('l.stage')) as Row[];
+    }
+    const stages = rows
+      .map((s): StageTotal => ({ stage: s.stage, count: Number(s.count), value: toMoneyString(s.value ?? '0') }))
+      .filter((s) => s.count > 0);
+    const total = stages
+      .filter((s) => !f.stages?.length || f.stages.includes(s.stage))
+      .reduce((n, s) => n + s.count, 0);
+    return { total, stages };
   }
 
   async findById(id: string, db: Db = this.knex): Promise<LeadRow | undefined> {

@@ -1,0 +1,76 @@
+// Shared pieces of the benchmarks: a fresh database, the compiled server as a child process, and
+// latency statistics. Benchmarks are run by hand (`npm run bench -w backend`), never by `npm test`.
+import { spawn } from 'node:child_process';
+import net from 'node:net';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { createRequire } from 'node:module';
+import { dropDatabase, ensureDatabase, startPostgres, connection } from '../scripts/lib/postgres.mjs';
+import { pg, REPO } from '../scripts/lib/env.mjs';
+
+const require = createRequire(import.meta.url);
+export const DIST = path.join(REPO, 'backend', 'dist', 'backend', 'src');
+export const here = path.dirname(fileURLToPath(import.meta.url));
+
+export async function freshDatabase(name) {
+  await startPostgres();
+  await dropDatabase(name);
+  await ensureDatabase(name);
+  const knex = require('knex')({ client: 'pg', connection: connection(name), pool: { min: 0, max: 20 } });
+  const { migrateLatest } = require(path.join(DIST, 'database', 'migrate.js'));
+  await migrateLatest(knex);
+  return knex;
+}
+
+export async function freePort() {
+  return new Promise((resolve) => {
+    const s = net.createServer();
+    s.listen(0, '127.0.0.1', () => {
+      const { port } = s.address();
+      s.close(() => resolve(port));
+    });
+  });
+}
+
+export async function startServer(database, extraEnv = {}) {
+  const port = await freePort();
+  const child = spawn(process.execPath, [path.join(DIST, 'main.js')], {
+    env: { ...process.env, PGPORT: String(pg.port), PGDATABASE: database, PORT: String(port), LOG_LEVEL: 'error', FRONTEND_DIST: '', ...extraEnv },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  const url = `http://127.0.0.1:${port}`;
+  for (let i = 0; i < 120; i++) {
+    try {
+      if ((await fetch(`${url}/api/health`)).ok) return { url, stop: () => child.kill('SIGTERM') };
+    } catch {
+      /* not yet */
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  child.kill();
+  throw new Error('server did not start');
+}
+
+export function percentile(sorted, p) {
+  if (!sorted.length) return NaN;
+  const i = Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1);
+  return sorted[Math.max(0, i)];
+}
+
+/** Runs `work` from `concurrency` loops for `seconds`; returns latencies in ms, sorted. */
+export async function closedLoop(work, { concurrency, seconds }) {
+  const latencies = [];
+  const end = Date.now() + seconds * 1000;
+  await Promise.all(
+    Array.from({ length: concurrency }, async () => {
+      while (Date.now() < end) {
+        const t0 = process.hrtime.bigint();
+        await work();
+        latencies.push(Number(process.hrtime.bigint() - t0) / 1e6);
+      }
+    }),
+  );
+  return latencies.sort((a, b) => a - b);
+}
+
+export { dropDatabase, pg };

@@ -1,0 +1,130 @@
+// Pipeline list API over 200k leads in 10 branches with 50 salespeople, at concurrency 16 (autocannon),
+// against the same SQL run directly through pg with the same concurrency in the same run.
+// Target (issue #3): API p95 ≤ 2 × the direct-SQL p95.
+// Usage: npm run build && node backend/bench/pipeline.bench.mjs [--leads 200000] [--seconds 15]
+import { createRequire } from 'node:module';
+import path from 'node:path';
+import autocannon from 'autocannon';
+import pgPkg from 'pg';
+import { closedLoop, DIST, dropDatabase, freshDatabase, percentile, pg, startServer } from './lib.mjs';
+
+const require = createRequire(import.meta.url);
+const arg = (name, fallback) => {
+  const i = process.argv.indexOf(`--${name}`);
+  return i > 0 ? Number(process.argv[i + 1]) : fallback;
+};
+const LEADS = arg('leads', 200_000);
+const SECONDS = arg('seconds', 15);
+const CONCURRENCY = 16;
+const DB = 'loambook_bench_pipeline';
+
+const knex = await freshDatabase(DB);
+console.log(`Seeding ${LEADS} leads in 10 branches with 50 salespeople …`);
+const { hashPassword } = require(path.join(DIST, 'auth', 'password-hash.js'));
+process.env.SCRYPT_LOG_N = '12';
+const hash = await hashPassword('benchmark password');
+await knex.raw(`
+  insert into branches (code, name, address_line1, city, state, postal_code, timezone, margin_floor_pct,
+    discount_limit_salesperson_pct, discount_limit_manager_pct, sales_tax_treatment)
+  select 'B' || lpad(i::text, 2, '0'), 'Bench ' || i, i || ' Bench Road', 'Benchton', 'FL', '32000',
+    'America/New_York', 35, 10, 20, 'materials_cost'
+  from generate_series(1, 10) i`);
+await knex.raw(`
+  insert into users (name, email, role, password_hash)
+  select 'Seller ' || i, 'seller' || i || '@bench.test', 'salesperson', ? from generate_series(1, 50) i`, [hash]);
+await knex.raw(`
+  insert into user_branches (user_id, branch_id)
+  select u.id, b.id from users u
+  join branches b on b.code = 'B' || lpad((((substring(u.email from 'seller([0-9]+)')::int - 1) % 10) + 1)::text, 2, '0')`);
+await knex.raw(`insert into users (name, email, role, password_hash) values ('Bench Manager', 'manager@bench.test', 'branch_manager', ?)`, [hash]);
+await knex.raw(`insert into user_branches (user_id, branch_id) select u.id, b.id from users u, branches b where u.email = 'manager@bench.test' and b.code = 'B01'`);
+await knex.raw(`insert into users (name, email, role, password_hash) values ('Bench Owner', 'owner@bench.test', 'owner', ?)`, [hash]);
+await knex.raw(
+  `
+  with sellers as (select ub.user_id, ub.branch_id, row_number() over (order by ub.user_id) - 1 as k from user_branches ub
+                   join users u on u.id = ub.user_id where u.role = 'salesperson')
+  insert into leads (branch_id, salesperson_id, homeowner_name, phone_primary, email, address_line1, city, state,
+    postal_code, stage, lost_reason, stage_changed_at, created_at, value)
+  select s.branch_id, s.user_id, 'Homeowner ' || g, '555-01' || lpad((g % 100)::text, 2, '0'), 'h' || g || '@example.com',
+    g || ' Clay Street', 'Benchton', 'FL', lpad((32000 + g % 900)::text, 5, '0'),
+    (array['new','inspection_booked','inspected','proposal_sent','contract_signed','deposit_received','scheduled',
+           'in_progress','completed','paid_in_full','lost'])[1 + g % 11],
+    case when g % 11 = 10 then 'Chose another contractor' end,
+    now() - make_interval(hours => g % 5000), now() - make_interval(hours => g % 9000 + 24),
+    case when g % 11 >= 3 then ((g * 37) % 40000 + 2500)::numeric(14,2) else 0 end
+  from generate_series(1, ?) g join sellers s on s.k = g % 50`,
+  [LEADS],
+);
+// What autovacuum would have done by the time an office uses it: statistics and the visibility map.
+await knex.raw('vacuum analyze');
+
+const server = await startServer(DB);
+const results = {};
+try {
+  const login = async (email) => {
+    const r = await fetch(`${server.url}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify({ email, password: 'benchmark password' }),
+    });
+    return (await r.json()).accessToken;
+  };
+  const { rows: [b01] } = await knex.raw(`select id from branches where code = 'B01'`);
+  const scenarios = [
+    { name: 'manager, own branch (20k leads), default sort, page 1', email: 'manager@bench.test', qs: `branchId=${b01.id}`, scope: { branchIds: [b01.id], salespersonId: null }, filter: { branchId: b01.id } },
+    { name: 'owner, all branches (200k leads), proposals sent, by value', email: 'owner@bench.test', qs: 'stage=proposal_sent&sort=value&order=desc', scope: { branchIds: null, salespersonId: null }, filter: { stages: ['proposal_sent'], sort: 'value', order: 'desc' } },
+    { name: 'owner, all branches, search by name', email: 'owner@bench.test', qs: 'q=homeowner%2012345', scope: { branchIds: null, salespersonId: null }, filter: { q: 'homeowner 12345' } },
+  ];
+
+  // The same SQL the API runs, captured from the repository itself, then replayed through pg.
+  const { LeadsRepository } = require(path.join(DIST, 'leads', 'leads.repository.js'));
+  const pool = new pgPkg.Pool({ host: pg.host, port: pg.port, user: pg.user, password: pg.password, database: DB, max: CONCURRENCY });
+
+  for (const s of scenarios) {
+    const token = await login(s.email);
+    const captured = [];
+    const onQuery = (q) => captured.push({ sql: knex.client.positionBindings(q.sql), bindings: q.bindings });
+    knex.on('query', onQuery);
+    await new LeadsRepository(knex).pipeline(s.scope, { sort: 'daysInStage', order: 'asc', limit: 25, offset: 0, ...s.filter });
+    knex.off('query', onQuery);
+
+    // warm both paths
+    for (let i = 0; i < 20; i++) await Promise.all(captured.map((q) => pool.query(q.sql, q.bindings)));
+    const direct = await closedLoop(() => Promise.all(captured.map((q) => pool.query(q.sql, q.bindings))), {
+      concurrency: CONCURRENCY,
+      seconds: SECONDS,
+    });
+    const apiLatencies = [];
+    const instance = autocannon({
+      url: `${server.url}/api/leads?${s.qs}`,
+      connections: CONCURRENCY,
+      duration: SECONDS,
+      headers: { authorization: `Bearer ${token}` },
+    });
+    // Every response time, so the p95 is exact rather than read off autocannon's fixed percentiles.
+    instance.on('response', (_client, _status, _bytes, ms) => apiLatencies.push(ms));
+    const api = await instance;
+    apiLatencies.sort((a, b) => a - b);
+    if (api.non2xx) throw new Error(`${api.non2xx} non-2xx answers from the API`);
+    const r = {
+      directP50: percentile(direct, 50),
+      directP95: percentile(direct, 95),
+      directRps: direct.length / SECONDS,
+      apiP50: percentile(apiLatencies, 50),
+      apiP95: percentile(apiLatencies, 95),
+      apiRps: apiLatencies.length / SECONDS,
+    };
+    r.ratioP95 = r.apiP95 / r.directP95;
+    results[s.name] = r;
+    console.log(`\n${s.name}`);
+    console.log(`  direct SQL (3 statements in parallel): p50 ${r.directP50.toFixed(1)} ms  p95 ${r.directP95.toFixed(1)} ms  ${r.directRps.toFixed(0)} req/s`);
+    console.log(`  API GET /api/leads:                    p50 ${r.apiP50.toFixed(1)} ms  p95 ${r.apiP95.toFixed(1)} ms  ${r.apiRps.toFixed(0)} req/s`);
+    console.log(`  p95 ratio API / SQL: ${r.ratioP95.toFixed(2)}  (target ≤ 2.00)  ${r.ratioP95 <= 2 ? 'MET' : 'NOT MET'}`);
+  }
+  await pool.end();
+} finally {
+  server.stop();
+  await knex.destroy();
+  if (!process.env.KEEP_BENCH_DB) await dropDatabase(DB);
+}
+

@@ -1,0 +1,11 @@
+import { Module } from '@nestjs/common';
+import { PriceBookController } from './price-book.controller';
+import { PriceBookRepository } from './price-book.repository';
+import { PriceBookService } from './price-book.service';
+
+@Module({
+  controllers: [PriceBookController],
+  providers: [PriceBookRepository, PriceBookService],
+  exports: [PriceBookRepository],
+})
+export class PriceBookModule {}
