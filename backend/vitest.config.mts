@@ -18,6 +18,10 @@ export default defineConfig({
     fileParallelism: false,
     testTimeout: 30_000,
     hookTimeout: 60_000,
-    env: { SCRYPT_LOG_N: '12', LOG_LEVEL: 'silent', AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true' },
+    env: {
+      SCRYPT_LOG_N: '12',
+      LOG_LEVEL: 'silent',
+      AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true',
+    },
   },
 });

@@ -35,7 +35,15 @@ export async function freePort() {
 export async function startServer(database, extraEnv = {}) {
   const port = await freePort();
   const child = spawn(process.execPath, [path.join(DIST, 'main.js')], {
-    env: { ...process.env, PGPORT: String(pg.port), PGDATABASE: database, PORT: String(port), LOG_LEVEL: 'error', FRONTEND_DIST: '', ...extraEnv },
+    env: {
+      ...process.env,
+      PGPORT: String(pg.port),
+      PGDATABASE: database,
+      PORT: String(port),
+      LOG_LEVEL: 'error',
+      FRONTEND_DIST: '',
+      ...extraEnv,
+    },
     stdio: ['ignore', 'ignore', 'inherit'],
   });
   const url = `http://127.0.0.1:${port}`;

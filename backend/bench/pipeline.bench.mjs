@@ -29,16 +29,27 @@ await knex.raw(`
   select 'B' || lpad(i::text, 2, '0'), 'Bench ' || i, i || ' Bench Road', 'Benchton', 'FL', '32000',
     'America/New_York', 35, 10, 20, 'materials_cost'
   from generate_series(1, 10) i`);
-await knex.raw(`
+await knex.raw(
+  `
   insert into users (name, email, role, password_hash)
-  select 'Seller ' || i, 'seller' || i || '@bench.test', 'salesperson', ? from generate_series(1, 50) i`, [hash]);
+  select 'Seller ' || i, 'seller' || i || '@bench.test', 'salesperson', ? from generate_series(1, 50) i`,
+  [hash],
+);
 await knex.raw(`
   insert into user_branches (user_id, branch_id)
   select u.id, b.id from users u
   join branches b on b.code = 'B' || lpad((((substring(u.email from 'seller([0-9]+)')::int - 1) % 10) + 1)::text, 2, '0')`);
-await knex.raw(`insert into users (name, email, role, password_hash) values ('Bench Manager', 'manager@bench.test', 'branch_manager', ?)`, [hash]);
-await knex.raw(`insert into user_branches (user_id, branch_id) select u.id, b.id from users u, branches b where u.email = 'manager@bench.test' and b.code = 'B01'`);
-await knex.raw(`insert into users (name, email, role, password_hash) values ('Bench Owner', 'owner@bench.test', 'owner', ?)`, [hash]);
+await knex.raw(
+  `insert into users (name, email, role, password_hash) values ('Bench Manager', 'manager@bench.test', 'branch_manager', ?)`,
+  [hash],
+);
+await knex.raw(
+  `insert into user_branches (user_id, branch_id) select u.id, b.id from users u, branches b where u.email = 'manager@bench.test' and b.code = 'B01'`,
+);
+await knex.raw(
+  `insert into users (name, email, role, password_hash) values ('Bench Owner', 'owner@bench.test', 'owner', ?)`,
+  [hash],
+);
 await knex.raw(
   `
   with sellers as (select ub.user_id, ub.branch_id, row_number() over (order by ub.user_id) - 1 as k from user_branches ub
@@ -69,23 +80,56 @@ try {
     });
     return (await r.json()).accessToken;
   };
-  const { rows: [b01] } = await knex.raw(`select id from branches where code = 'B01'`);
+  const {
+    rows: [b01],
+  } = await knex.raw(`select id from branches where code = 'B01'`);
   const scenarios = [
-    { name: 'manager, own branch (20k leads), default sort, page 1', email: 'manager@bench.test', qs: `branchId=${b01.id}`, scope: { branchIds: [b01.id], salespersonId: null }, filter: { branchId: b01.id } },
-    { name: 'owner, all branches (200k leads), proposals sent, by value', email: 'owner@bench.test', qs: 'stage=proposal_sent&sort=value&order=desc', scope: { branchIds: null, salespersonId: null }, filter: { stages: ['proposal_sent'], sort: 'value', order: 'desc' } },
-    { name: 'owner, all branches, search by name', email: 'owner@bench.test', qs: 'q=homeowner%2012345', scope: { branchIds: null, salespersonId: null }, filter: { q: 'homeowner 12345' } },
+    {
+      name: 'manager, own branch (20k leads), default sort, page 1',
+      email: 'manager@bench.test',
+      qs: `branchId=${b01.id}`,
+      scope: { branchIds: [b01.id], salespersonId: null },
+      filter: { branchId: b01.id },
+    },
+    {
+      name: 'owner, all branches (200k leads), proposals sent, by value',
+      email: 'owner@bench.test',
+      qs: 'stage=proposal_sent&sort=value&order=desc',
+      scope: { branchIds: null, salespersonId: null },
+      filter: { stages: ['proposal_sent'], sort: 'value', order: 'desc' },
+    },
+    {
+      name: 'owner, all branches, search by name',
+      email: 'owner@bench.test',
+      qs: 'q=homeowner%2012345',
+      scope: { branchIds: null, salespersonId: null },
+      filter: { q: 'homeowner 12345' },
+    },
   ];
 
   // The same SQL the API runs, captured from the repository itself, then replayed through pg.
   const { LeadsRepository } = require(path.join(DIST, 'leads', 'leads.repository.js'));
-  const pool = new pgPkg.Pool({ host: pg.host, port: pg.port, user: pg.user, password: pg.password, database: DB, max: CONCURRENCY });
+  const pool = new pgPkg.Pool({
+    host: pg.host,
+    port: pg.port,
+    user: pg.user,
+    password: pg.password,
+    database: DB,
+    max: CONCURRENCY,
+  });
 
   for (const s of scenarios) {
     const token = await login(s.email);
     const captured = [];
     const onQuery = (q) => captured.push({ sql: knex.client.positionBindings(q.sql), bindings: q.bindings });
     knex.on('query', onQuery);
-    await new LeadsRepository(knex).pipeline(s.scope, { sort: 'daysInStage', order: 'asc', limit: 25, offset: 0, ...s.filter });
+    await new LeadsRepository(knex).pipeline(s.scope, {
+      sort: 'daysInStage',
+      order: 'asc',
+      limit: 25,
+      offset: 0,
+      ...s.filter,
+    });
     knex.off('query', onQuery);
 
     // warm both paths
@@ -117,9 +161,15 @@ try {
     r.ratioP95 = r.apiP95 / r.directP95;
     results[s.name] = r;
     console.log(`\n${s.name}`);
-    console.log(`  direct SQL (3 statements in parallel): p50 ${r.directP50.toFixed(1)} ms  p95 ${r.directP95.toFixed(1)} ms  ${r.directRps.toFixed(0)} req/s`);
-    console.log(`  API GET /api/leads:                    p50 ${r.apiP50.toFixed(1)} ms  p95 ${r.apiP95.toFixed(1)} ms  ${r.apiRps.toFixed(0)} req/s`);
-    console.log(`  p95 ratio API / SQL: ${r.ratioP95.toFixed(2)}  (target ≤ 2.00)  ${r.ratioP95 <= 2 ? 'MET' : 'NOT MET'}`);
+    console.log(
+      `  direct SQL (3 statements in parallel): p50 ${r.directP50.toFixed(1)} ms  p95 ${r.directP95.toFixed(1)} ms  ${r.directRps.toFixed(0)} req/s`,
+    );
+    console.log(
+      `  API GET /api/leads:                    p50 ${r.apiP50.toFixed(1)} ms  p95 ${r.apiP95.toFixed(1)} ms  ${r.apiRps.toFixed(0)} req/s`,
+    );
+    console.log(
+      `  p95 ratio API / SQL: ${r.ratioP95.toFixed(2)}  (target ≤ 2.00)  ${r.ratioP95 <= 2 ? 'MET' : 'NOT MET'}`,
+    );
   }
   await pool.end();
 } finally {
@@ -127,4 +177,3 @@ try {
   await knex.destroy();
   if (!process.env.KEEP_BENCH_DB) await dropDatabase(DB);
 }
-

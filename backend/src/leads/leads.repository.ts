@@ -164,7 +164,11 @@ export class LeadsRepository {
     const now = new Date();
     // The page's ids first (an index walk in the sort order), then the display columns and the per-row
     // look-ups for those rows only; computing them before the sort would touch every matching lead.
-    const page = this.applyFilter(this.applyScope(db('leads as l').select('l.id', `${SORTS[f.sort]} as sort_key`), scope), f, db)
+    const page = this.applyFilter(
+      this.applyScope(db('leads as l').select('l.id', `${SORTS[f.sort]} as sort_key`), scope),
+      f,
+      db,
+    )
       .orderBy(SORTS[f.sort], f.order)
       .orderBy('l.id', f.order)
       .limit(f.limit)
@@ -182,9 +186,17 @@ export class LeadsRepository {
    * Per-stage counts and value, and the matching total. Filtered by branch, salesperson and stage only,
    * they come from lead_stage_totals (kept by a trigger); any other filter aggregates the leads themselves.
    */
-  private async totals(scope: LeadScope, f: PipelineFilter, db: Db): Promise<{ total: number; stages: StageTotal[] }> {
+  private async totals(
+    scope: LeadScope,
+    f: PipelineFilter,
+    db: Db,
+  ): Promise<{ total: number; stages: StageTotal[] }> {
     const simple =
-      f.minAgeDays === undefined && f.maxAgeDays === undefined && !f.minValue && !f.maxValue && !f.q &&
+      f.minAgeDays === undefined &&
+      f.maxAgeDays === undefined &&
+      !f.minValue &&
+      !f.maxValue &&
+      !f.q &&
       f.approvalPending === undefined;
     type Row = { stage: LeadStage; count: string; value: string | null };
     let rows: Row[];
@@ -199,7 +211,8 @@ export class LeadsRepository {
       if (f.branchId) q.where('t.branch_id', f.branchId);
       const sp = scope.salespersonId ?? f.salespersonId;
       if (sp) q.where('t.salesperson_key', sp);
-      if (scope.salespersonId && f.salespersonId && f.salespersonId !== scope.salespersonId) q.whereRaw('false');
+      if (scope.salespersonId && f.salespersonId && f.salespersonId !== scope.salespersonId)
+        q.whereRaw('false');
       rows = (await q) as Row[];
     } else {
       rows = (await this.applyFilter(this.applyScope(db('leads as l'), scope), f, db, false)
@@ -209,7 +222,11 @@ export class LeadsRepository {
         .groupBy('l.stage')) as Row[];
     }
     const stages = rows
-      .map((s): StageTotal => ({ stage: s.stage, count: Number(s.count), value: toMoneyString(s.value ?? '0') }))
+      .map((s): StageTotal => ({
+        stage: s.stage,
+        count: Number(s.count),
+        value: toMoneyString(s.value ?? '0'),
+      }))
       .filter((s) => s.count > 0);
     const total = stages
       .filter((s) => !f.stages?.length || f.stages.includes(s.stage))
