@@ -253,4 +253,19 @@ describe('leads and the pipeline', () => {
     expect(kept.rows).toEqual(actual.rows);
     expect(actual.rows.length).toBeGreaterThan(3);
   });
+
+  it('refuses a transfer once a proposal has gone out, and moves inspections with the lead before that', async () => {
+    const { lead } = await createLead();
+    await t.db('inspections').insert({ lead_id: lead.id, branch_id: north, scheduled_at: new Date() });
+    const moved = await as('manager').post(`/api/leads/${lead.id}/transfer`, { branchId: south });
+    expect(moved.status).toBe(200);
+    const insp = await t.db('inspections').where({ lead_id: lead.id }).first();
+    expect(insp.branch_id).toBe(south);
+
+    const { lead: late } = await createLead();
+    await t.db('leads').where({ id: late.id }).update({ stage: 'proposal_sent' });
+    const refused = await as('manager').post(`/api/leads/${late.id}/transfer`, { branchId: south });
+    expect(refused.status).toBe(409);
+    expect(refused.body.code).toBe('LEAD.TRANSFER_TOO_LATE');
+  });
 });

@@ -330,6 +330,27 @@ export class LeadsRepository {
       .update({ branch_id: branchId, salesperson_id: null, updated_at: db.fn.now() });
   }
 
+  async moveRecordsToBranch(leadId: string, branchId: string, db: Db): Promise<void> {
+    const inspections = db('inspections').select('id').where({ lead_id: leadId });
+    const proposals = db('proposals').select('id').where({ lead_id: leadId });
+    const options = db('proposal_options').select('id').whereIn('proposal_id', proposals.clone());
+    await db('inspections').where({ lead_id: leadId }).update({ branch_id: branchId });
+    await db('survey_points').whereIn('inspection_id', inspections.clone()).update({ branch_id: branchId });
+    await db('inspection_photos')
+      .whereIn('inspection_id', inspections.clone())
+      .update({ branch_id: branchId });
+    await db('proposal_lines').whereIn('option_id', options.clone()).update({ branch_id: branchId });
+    await db('proposal_options').whereIn('proposal_id', proposals.clone()).update({ branch_id: branchId });
+    await db('proposals').where({ lead_id: leadId }).update({ branch_id: branchId });
+    await db('approval_requests').where({ lead_id: leadId }).update({ branch_id: branchId });
+    await db('signing_links').whereIn('proposal_id', proposals.clone()).update({ branch_id: branchId });
+  }
+
+  /** A reassigned lead's proposals follow it, so the new salesperson can see and finish them. */
+  async reassignOpenProposals(leadId: string, salespersonId: string | null, db: Db): Promise<void> {
+    await db('proposals').where({ lead_id: leadId }).update({ salesperson_id: salespersonId });
+  }
+
   async addActivity(
     a: {
       leadId: string;

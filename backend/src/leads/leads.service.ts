@@ -29,6 +29,9 @@ import type {
 } from './dto/lead.dto';
 import { duplicateKeys, LeadsRepository, type LeadRow, type LeadScope } from './leads.repository';
 
+/** Until a proposal has gone out, a lead can still move to another branch. */
+const TRANSFERABLE: readonly LeadStage[] = ['new', 'inspection_booked', 'inspected'];
+
 /** Moves a person may ask for by hand; the others follow from the work itself. */
 const MANUAL_MOVES: readonly LeadStage[] = ['lost'];
 
@@ -192,6 +195,9 @@ export class LeadsService {
         );
       }
       await this.repo.update(id, patch, trx);
+      if (patch.salespersonId !== undefined && patch.salespersonId !== row.salespersonId) {
+        await this.repo.reassignOpenProposals(id, patch.salespersonId ?? null, trx);
+      }
       return this.get(user, id, trx);
     });
   }
@@ -281,6 +287,14 @@ export class LeadsService {
         );
       }
       if (dto.branchId === row.branchId) throw invalid('branchId', 'The lead is already in this branch.');
+      if (!TRANSFERABLE.includes(row.stage)) {
+        throw new DomainError(
+          'conflict',
+          'LEAD.TRANSFER_TOO_LATE',
+          'A lead can move to another branch only before a proposal has been sent to the homeowner.',
+          { stage: row.stage },
+        );
+      }
       const target = await this.branches.findById(dto.branchId, trx);
       if (!target) throw invalid('branchId', 'Unknown branch.');
       await this.repo.addTransfer(
@@ -288,6 +302,8 @@ export class LeadsService {
         trx,
       );
       await this.repo.setBranch(id, dto.branchId, trx);
+      // Its inspections, photos and draft proposals go with it, so the new branch can work on them.
+      await this.repo.moveRecordsToBranch(id, dto.branchId, trx);
       const data = { fromBranch: row.branchCode, toBranch: target.code };
       const body = `Transferred from ${row.branchCode} to ${target.code}${dto.note ? `: ${dto.note}` : ''}`;
       // One row in each branch's timeline, so both managers see it.
