@@ -1,6 +1,6 @@
 import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
-import { resolve } from './vite.config';
+import { resolve } from './vite.config.ts';
 
 export default defineConfig({
   plugins: [react()],
@@ -11,5 +11,6 @@ export default defineConfig({
     include: ['src/**/*.test.ts', 'src/**/*.test.tsx'],
     css: false,
     restoreMocks: true,
+    unstubGlobals: true,
   },
 });

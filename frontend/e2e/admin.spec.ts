@@ -89,12 +89,26 @@ describe('journey: owner sets up a branch and invites a salesperson', () => {
     expect(await p2.getByRole('link', { name: 'Branches' }).count()).toBe(0);
     // The admin page itself refuses them, with a clear message.
     await p2.goto('/admin/users');
-    await expect.poll(() => p2.getByText(/role doesn.t include this/i).first().isVisible()).toBe(true);
+    await expect
+      .poll(() =>
+        p2
+          .getByText(/role doesn.t include this/i)
+          .first()
+          .isVisible(),
+      )
+      .toBe(true);
     await stack.shot(p2, 'salesperson-forbidden');
 
     // The link works once.
     await p2.goto(link!);
-    await expect.poll(() => p2.getByText(/already been used/).first().isVisible()).toBe(true);
+    await expect
+      .poll(() =>
+        p2
+          .getByText(/already been used/)
+          .first()
+          .isVisible(),
+      )
+      .toBe(true);
     await stack.shot(p2, 'link-used');
     await phone.close();
   });
@@ -105,7 +119,9 @@ describe('journey: owner sets up a branch and invites a salesperson', () => {
     const page = await ctx.newPage();
     await signIn(page, manager.email, manager.password);
     await page.getByRole('link', { name: 'People' }).first().click();
-    await expect.poll(() => page.getByRole('cell', { name: demo('salesperson', 'MRW').email }).isVisible()).toBe(true);
+    await expect
+      .poll(() => page.getByRole('cell', { name: demo('salesperson', 'MRW').email }).isVisible())
+      .toBe(true);
     expect(await page.getByRole('cell', { name: demo('salesperson', 'SBH').email }).count()).toBe(0);
     await stack.shot(page, 'manager-people');
     await page.getByRole('link', { name: 'Branches' }).first().click();

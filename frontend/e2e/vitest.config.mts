@@ -3,7 +3,7 @@ import { defineConfig } from 'vitest/config';
 // Browser journeys: Debian's Chromium (playwright-core) against the built app, one journey file at a time.
 export default defineConfig({
   test: {
-    root: __dirname,
+    root: import.meta.dirname,
     include: ['**/*.spec.ts'],
     environment: 'node',
     fileParallelism: false,

@@ -1,8 +1,10 @@
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { mkdirSync, readFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import os from 'node:os';
 import net from 'node:net';
 import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import S3rver from 's3rver';
 import { dropDatabase, ensureDatabase, startPostgres } from '../../../backend/scripts/lib/postgres.mjs';
 import { pg, REPO } from '../../../backend/scripts/lib/env.mjs';
 import { startMailCatcher, type MailCatcher } from '../../../backend/test/support/mail-catcher';
@@ -65,6 +67,15 @@ export async function startStack(journey: string): Promise<Stack> {
   const database = `loambook_e2e_${journey.replace(/\W/g, '_')}_${Date.now()}`;
   await ensureDatabase(database);
   const mail = await startMailCatcher();
+  const s3Dir = mkdtempSync(path.join(os.tmpdir(), 'loambook-e2e-s3-'));
+  const s3 = new S3rver({
+    port: 0,
+    address: '127.0.0.1',
+    silent: true,
+    directory: s3Dir,
+    configureBuckets: [{ name: 'loambook-e2e' }],
+  });
+  const s3Address = await s3.run();
   const port = await freePort();
   const baseUrl = `http://127.0.0.1:${port}`;
   const env = {
@@ -76,6 +87,9 @@ export async function startStack(journey: string): Promise<Stack> {
     SMTP_PORT: String(mail.port),
     LOG_LEVEL: 'warn',
     SCRYPT_LOG_N: '12',
+    S3_ENDPOINT: `http://127.0.0.1:${s3Address.port}`,
+    S3_BUCKET: 'loambook-e2e',
+    AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true',
   };
   const db = spawnSync(process.execPath, ['backend/dist/backend/src/cli/db.js', 'migrate', 'seed'], {
     cwd: REPO,
@@ -91,7 +105,10 @@ export async function startStack(journey: string): Promise<Stack> {
   });
   await waitForHealth(baseUrl, server);
 
-  const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: CHROMIUM_ARGS });
+  const browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    args: CHROMIUM_ARGS,
+  });
   const shotsDir = path.join(REPO, 'frontend', 'e2e', '.screenshots', journey);
   mkdirSync(shotsDir, { recursive: true });
   let n = 0;
@@ -104,13 +121,18 @@ export async function startStack(journey: string): Promise<Stack> {
     newContext: (viewport = DESKTOP) => browser.newContext({ viewport, baseURL: baseUrl }),
     async shot(page, name) {
       n += 1;
-      await page.screenshot({ path: path.join(shotsDir, `${String(n).padStart(2, '0')}-${name}.png`), fullPage: true });
+      await page.screenshot({
+        path: path.join(shotsDir, `${String(n).padStart(2, '0')}-${name}.png`),
+        fullPage: true,
+      });
     },
     async close() {
       await browser.close().catch(() => undefined);
       server.kill('SIGTERM');
       await new Promise((r) => server.once('exit', r));
       await mail.close().catch(() => undefined);
+      await s3.close().catch(() => undefined);
+      rmSync(s3Dir, { recursive: true, force: true });
       if (!process.env.KEEP_TEST_DB) await dropDatabase(database);
       console.log(`Screenshots of the "${journey}" journey: ${shotsDir}`);
     },

@@ -27,16 +27,23 @@ export function FormField({ id, label, error, hint, required, className, childre
   const describedBy = [errorId, hintId].filter(Boolean).join(' ') || undefined;
   return (
     <div className={['form-field', className].filter(Boolean).join(' ')}>
-      <label htmlFor={id} className="form-field__label">
-        {label}
+      {/* The asterisk sits outside the label so that the field's name is the label text alone. */}
+      <div className="form-field__label-row">
+        <label htmlFor={id} className="form-field__label">
+          {label}
+        </label>
         {required ? (
-          <span className="form-field__required" aria-hidden="true">
-            {' '}
+          <span className="form-field__required" aria-hidden="true" title="Required">
             *
           </span>
         ) : null}
-      </label>
-      {children({ id, 'aria-invalid': error ? true : undefined, 'aria-describedby': describedBy, invalid: !!error })}
+      </div>
+      {children({
+        id,
+        'aria-invalid': error ? true : undefined,
+        'aria-describedby': describedBy,
+        invalid: !!error,
+      })}
       {error ? (
         <small id={errorId} className="form-field__error">
           <i className="pi pi-exclamation-circle" aria-hidden="true" /> {error}

@@ -14,8 +14,9 @@ const NotifyContext = createContext<Notify | null>(null);
 export function NotifyProvider({ children }: { children: ReactNode }) {
   const toast = useRef<Toast>(null);
   const notify = useMemo<Notify>(() => {
-    const show = (severity: 'success' | 'error' | 'info', life: number) => (summary: string, detail?: string) =>
-      toast.current?.show({ severity, summary, detail, life });
+    const show =
+      (severity: 'success' | 'error' | 'info', life: number) => (summary: string, detail?: string) =>
+        toast.current?.show({ severity, summary, detail, life });
     return { success: show('success', 4000), error: show('error', 8000), info: show('info', 4000) };
   }, []);
   return (

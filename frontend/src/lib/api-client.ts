@@ -92,7 +92,11 @@ function fallbackError(status: number): Omit<ApiErrorBody, 'requestId'> {
     };
   }
   if (status >= 500) {
-    return { code: 'INTERNAL', message: 'Something went wrong on our side. Try again in a moment.', details: null };
+    return {
+      code: 'INTERNAL',
+      message: 'Something went wrong on our side. Try again in a moment.',
+      details: null,
+    };
   }
   return { code: `HTTP.${status}`, message: `The request failed (HTTP ${status}).`, details: null };
 }

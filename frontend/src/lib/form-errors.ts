@@ -13,7 +13,10 @@ export interface ServerFormErrors<K extends string> {
  * Puts the server's field errors (`[{field, message}]`, nested as "discountAuthority.salesperson") onto
  * the form's fields. Anything no field shows goes in the form-level message so that nothing is lost.
  */
-export function serverFormErrors<K extends string>(error: unknown, fields: readonly K[]): ServerFormErrors<K> {
+export function serverFormErrors<K extends string>(
+  error: unknown,
+  fields: readonly K[],
+): ServerFormErrors<K> {
   if (!isApiError(error)) {
     return { fields: {}, form: 'Something went wrong. Try again.' };
   }

@@ -19,9 +19,34 @@ export function formatPercent(value: string | null | undefined): string {
   return value ? `${value}%` : '—';
 }
 
-/** "America/New_York" → "New York (America)": easier to scan in a list. */
+/**
+ * "America/New_York" → "Eastern Time", the name people use (from the browser's time-zone data); the IANA
+ * name itself when the browser has no such name.
+ */
 export function formatTimezone(zone: string): string {
-  const [region, ...rest] = zone.split('/');
-  if (rest.length === 0) return zone.replace(/_/g, ' ');
-  return `${rest.join(' / ').replace(/_/g, ' ')} (${region})`;
+  try {
+    const name = new Intl.DateTimeFormat('en-US', { timeZone: zone, timeZoneName: 'longGeneric' })
+      .formatToParts(new Date())
+      .find((p) => p.type === 'timeZoneName')?.value;
+    return name && !/^GMT/.test(name) ? name : zone;
+  } catch {
+    return zone;
+  }
+}
+
+const recentThisYear = new Intl.DateTimeFormat('en-US', {
+  month: 'short',
+  day: 'numeric',
+  hour: 'numeric',
+  minute: '2-digit',
+});
+
+/** Like formatDateTime, without the year when it is this year: "Mar 4, 9:15 AM". */
+export function formatRecent(iso: string | null | undefined, fallback = '—'): string {
+  if (!iso) return fallback;
+  const ms = Date.parse(iso);
+  if (Number.isNaN(ms)) return fallback;
+  return new Date(ms).getFullYear() === new Date().getFullYear()
+    ? recentThisYear.format(ms)
+    : dateTime.format(ms);
 }

@@ -44,7 +44,9 @@ export const EMPTY_BRANCH: BranchFormValues = {
   marginFloorPct: '',
   'discountAuthority.salesperson': '',
   'discountAuthority.branch_manager': '',
-  salesTaxTreatment: '',
+  // Lump-sum repair contracts usually make the contractor the consumer of the materials (see
+  // SALES_TAX_TREATMENT_LABELS in common); the form says to confirm it for the branch's state.
+  salesTaxTreatment: 'materials_cost',
   salesTaxRatePct: '',
 };
 
@@ -75,7 +77,8 @@ const trimmed = (v: string) => v.trim();
 export function validateBranch(values: BranchFormValues): FieldErrors<BranchField> {
   const errors: FieldErrors<BranchField> = {};
   const code = trimmed(values.code).toUpperCase();
-  if (!BRANCH_CODE_PATTERN.test(code)) errors.code = 'Use 2 to 8 capital letters or digits, starting with a letter.';
+  if (!BRANCH_CODE_PATTERN.test(code))
+    errors.code = 'Use 2 to 8 capital letters or digits, starting with a letter.';
 
   const name = trimmed(values.name);
   if (name.length < 2) errors.name = 'Enter the branch name.';
@@ -90,7 +93,8 @@ export function validateBranch(values: BranchFormValues): FieldErrors<BranchFiel
   else if (city.length > 80) errors.city = 'Use at most 80 characters.';
 
   if (!(US_STATES as readonly string[]).includes(values.state)) errors.state = 'Choose a US state.';
-  if (!ZIP_PATTERN.test(trimmed(values.postalCode))) errors.postalCode = 'Enter a 5-digit ZIP code (or ZIP+4).';
+  if (!ZIP_PATTERN.test(trimmed(values.postalCode)))
+    errors.postalCode = 'Enter a 5-digit ZIP code (or ZIP+4).';
   if (trimmed(values.phone).length > 32) errors.phone = 'Use at most 32 characters.';
   if (!values.timezone) errors.timezone = 'Choose the time zone the branch works in.';
 

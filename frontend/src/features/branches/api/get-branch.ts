@@ -18,6 +18,7 @@ export function useBranch(id: string) {
   return useQuery({
     ...branchQueryOptions(id),
     // Opened from the list: show that row at once while the fresh copy loads.
-    placeholderData: () => queryClient.getQueryData(branchesQueryOptions().queryKey)?.find((b) => b.id === id),
+    placeholderData: () =>
+      queryClient.getQueryData(branchesQueryOptions().queryKey)?.find((b) => b.id === id),
   });
 }

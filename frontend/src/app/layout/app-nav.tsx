@@ -1,0 +1,48 @@
+import { NavLink } from 'react-router';
+import { useAppAbility, adminAccess } from '@/features/auth/ability';
+import { paths } from '../paths';
+
+const linkClass = ({ isActive }: { isActive: boolean }) =>
+  isActive ? 'nav-link nav-link--active' : 'nav-link';
+
+/** The main navigation: only what the person's role includes. */
+export function AppNav({ onNavigate }: { onNavigate?: () => void }) {
+  const access = adminAccess(useAppAbility());
+  return (
+    <nav aria-label="Main" className="app-nav">
+      <ul className="app-nav__list">
+        <li>
+          <NavLink to={paths.home.href()} end className={linkClass} onClick={onNavigate}>
+            <i className="pi pi-home" aria-hidden="true" />
+            <span>Home</span>
+          </NavLink>
+        </li>
+      </ul>
+      {access.branches || access.people ? (
+        <div className="app-nav__group" role="group" aria-labelledby={`${onNavigate ? 'm-' : ''}nav-admin`}>
+          <p className="app-nav__group-label" id={`${onNavigate ? 'm-' : ''}nav-admin`}>
+            Admin
+          </p>
+          <ul className="app-nav__list">
+            {access.branches ? (
+              <li>
+                <NavLink to={paths.branches.href()} className={linkClass} onClick={onNavigate}>
+                  <i className="pi pi-building" aria-hidden="true" />
+                  <span>Branches</span>
+                </NavLink>
+              </li>
+            ) : null}
+            {access.people ? (
+              <li>
+                <NavLink to={paths.people.href()} className={linkClass} onClick={onNavigate}>
+                  <i className="pi pi-users" aria-hidden="true" />
+                  <span>People</span>
+                </NavLink>
+              </li>
+            ) : null}
+          </ul>
+        </div>
+      ) : null}
+    </nav>
+  );
+}
