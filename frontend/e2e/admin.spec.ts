@@ -27,6 +27,7 @@ describe('journey: owner sets up a branch and invites a salesperson', () => {
     const page = await ctx.newPage();
 
     await page.goto('/sign-in');
+    await page.getByRole('button', { name: 'Sign in' }).waitFor();
     await stack.shot(page, 'sign-in');
     await signIn(page, owner.email, owner.password);
     await expect.poll(() => page.getByText(owner.name).first().isVisible()).toBe(true);
