@@ -12,5 +12,6 @@ export default defineConfig({
     css: false,
     restoreMocks: true,
     unstubGlobals: true,
+    testTimeout: 20_000,
   },
 });
