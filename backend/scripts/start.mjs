@@ -1,6 +1,7 @@
 // npm start: PostgreSQL (installed when missing), maildev, a build of everything, migrations and the
 // demo company, then the app in the foreground on http://127.0.0.1:3000. Ctrl-C stops the app;
 // `npm run stop` stops the database and maildev.
+import { spawn } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { app, log, pg, REPO } from './lib/env.mjs';
@@ -33,19 +34,32 @@ await step(
 const accounts = JSON.parse(readFileSync(path.join(REPO, 'seeds/data/demo-accounts.json'), 'utf8'));
 const owner = accounts.find((a) => a.role === 'owner');
 const url = `http://127.0.0.1:${app.port}`;
+
+const server = spawn(process.execPath, ['backend/dist/backend/src/main.js'], {
+  cwd: REPO,
+  env,
+  stdio: 'inherit',
+});
+const forward = (signal) => () => server.kill(signal);
+process.on('SIGINT', forward('SIGINT'));
+process.on('SIGTERM', forward('SIGTERM'));
+server.on('exit', (code) => process.exit(code ?? 0));
+
+// The banner comes once the app answers, so it is the last thing on the screen rather than lost in the
+// start-up log.
+for (let i = 0; i < 240; i++) {
+  try {
+    if ((await fetch(`${url}/api/health`)).ok) break;
+  } catch {
+    // not listening yet
+  }
+  await new Promise((r) => setTimeout(r, 250));
+}
 console.log(`
   Loambook      ${url}
   Mail inbox    ${inbox}   (every e-mail the app sends lands here)
   API docs      ${url}/api/docs
   Sign in as    ${owner.email} / ${owner.password}   (all demo accounts: README.md or seeds/data/demo-accounts.json)
 
-  Ctrl-C stops the app; "npm run stop" stops PostgreSQL and maildev.
+  Ctrl-C stops the app; "npm run stop" stops PostgreSQL, maildev and s3rver.
 `);
-
-const server = await import('node:child_process').then(({ spawn }) =>
-  spawn(process.execPath, ['backend/dist/backend/src/main.js'], { cwd: REPO, env, stdio: 'inherit' }),
-);
-const forward = (signal) => () => server.kill(signal);
-process.on('SIGINT', forward('SIGINT'));
-process.on('SIGTERM', forward('SIGTERM'));
-server.on('exit', (code) => process.exit(code ?? 0));
