@@ -2,6 +2,7 @@ import type { Knex } from 'knex';
 import * as foundation from './20261201000000_foundation';
 import * as selling from './20261202000000_selling';
 import * as proposalPricing from './20261202014000_proposal_pricing';
+import * as signing from './20261202016000_signing';
 
 /**
  * Every migration, in order. Listed here (not found on disk) so that the compiled server and the tests,
@@ -12,4 +13,5 @@ export const MIGRATIONS: ReadonlyArray<readonly [string, Knex.Migration]> = [
   ['20261201000000_foundation', foundation],
   ['20261202000000_selling', selling],
   ['20261202014000_proposal_pricing', proposalPricing],
+  ['20261202016000_signing', signing],
 ];

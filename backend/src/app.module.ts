@@ -14,6 +14,7 @@ import { LeadsModule } from './leads/leads.module';
 import { StorageModule } from './storage/storage.module';
 import { InspectionsModule } from './inspections/inspections.module';
 import { ProposalsModule } from './proposals/proposals.module';
+import { SigningModule } from './signing/signing.module';
 import { HealthController } from './health/health.controller';
 
 @Module({})
@@ -30,6 +31,13 @@ export class AppModule {
             // The id assigned by the first middleware (app.factory.ts).
             genReqId: (req) => String((req as { id?: string }).id ?? randomUUID()),
             redact: ['req.headers.authorization', 'req.headers.cookie'],
+            // Single-use links carry their secret in the path: keep it out of the logs.
+            serializers: {
+              req: (req: { url?: string }) => ({
+                ...req,
+                url: req.url?.replace(/\/(signing|password-links)\/[^/?]+/, '/$1/[token]'),
+              }),
+            },
             autoLogging: { ignore: (req) => req.url === '/api/health' },
           },
         }),
@@ -43,6 +51,7 @@ export class AppModule {
         InspectionsModule,
         LeadsModule,
         ProposalsModule,
+        SigningModule,
       ],
       controllers: [HealthController],
       providers: [

@@ -9,6 +9,11 @@ const PUBLIC_ROUTES = new Set([
   'POST /api/auth/login',
   'GET /api/auth/password-links/{token}',
   'POST /api/auth/password',
+  // The homeowner's signing page: the unguessable link is the credential (src/signing/signing.controller.ts).
+  'GET /api/signing/{token}',
+  'GET /api/signing/{token}/pdf',
+  'POST /api/signing/{token}/sign',
+  'POST /api/signing/{token}/cancel',
 ]);
 
 describe('every route needs a token except the public ones', () => {
@@ -52,6 +57,7 @@ describe('every route needs a token except the public ones', () => {
       401,
     );
     expect((await t.http.get('/api/auth/password-links/' + 'x'.repeat(40))).status).toBe(410);
+    expect((await t.http.get('/api/signing/' + 'x'.repeat(43))).body.code).toBe('SIGNING.LINK_UNKNOWN');
   });
 
   it('serves the OpenAPI document and its UI', async () => {

@@ -11,3 +11,4 @@ export * from './leads';
 export * from './api/leads';
 export * from './inspections';
 export * from './pricing';
+export * from './signing';

@@ -1,3 +1,4 @@
+import { createSecretKey } from 'node:crypto';
 import { Inject, Injectable } from '@nestjs/common';
 import { PassportStrategy } from '@nestjs/passport';
 import { ExtractJwt, Strategy } from 'passport-jwt';
@@ -14,7 +15,9 @@ export class JwtStrategy extends PassportStrategy(Strategy) {
     super({
       jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
       ignoreExpiration: false,
-      secretOrKey: config.jwt.secret,
+      // A KeyObject made once: given a string, jsonwebtoken first tries (and fails) to read it as a
+      // public key on every request, which showed as the top cost in a CPU profile of the pipeline API.
+      secretOrKey: createSecretKey(Buffer.from(config.jwt.secret, 'utf8')) as unknown as Buffer,
       algorithms: ['HS256'],
     });
   }

@@ -11,6 +11,10 @@ export interface AppConfig {
   jwt: { secret: string; expiresInSeconds: number };
   loginThrottle: { limit: number; ttlMs: number };
   invitationTtlHours: number;
+  /** Days a proposal's signing link works (SIGNING_LINK_TTL_DAYS, default 14). */
+  signingLinkTtlDays: number;
+  /** A fixed "now" for the signing clock: TEST_NOW, honoured only when NODE_ENV=test. */
+  testNow: Date | null;
   mail: { host: string; port: number; from: string };
   /** File storage through the S3 API (s3rver locally; any S3-compatible service in production). */
   s3: {
@@ -30,6 +34,14 @@ function int(value: string | undefined, fallback: number, name: string): number 
   if (value === undefined || value === '') return fallback;
   if (!/^\d+$/.test(value)) throw new Error(`${name} must be a whole number, got "${value}"`);
   return Number(value);
+}
+
+function testNow(env: NodeJS.ProcessEnv): Date | null {
+  if (env.NODE_ENV !== 'test' || !env.TEST_NOW) return null;
+  const at = new Date(env.TEST_NOW);
+  if (Number.isNaN(at.getTime()))
+    throw new Error(`TEST_NOW must be an ISO-8601 instant, got "${env.TEST_NOW}"`);
+  return at;
 }
 
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
@@ -55,6 +67,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
       ttlMs: int(env.LOGIN_THROTTLE_TTL_MS, 15 * 60 * 1000, 'LOGIN_THROTTLE_TTL_MS'),
     },
     invitationTtlHours: int(env.INVITATION_TTL_HOURS, 72, 'INVITATION_TTL_HOURS'),
+    signingLinkTtlDays: int(env.SIGNING_LINK_TTL_DAYS, 14, 'SIGNING_LINK_TTL_DAYS'),
+    testNow: testNow(env),
     mail: {
       host: env.SMTP_HOST ?? '127.0.0.1',
       port: int(env.SMTP_PORT, 1025, 'SMTP_PORT'),

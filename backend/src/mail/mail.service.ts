@@ -1,5 +1,6 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import nodemailer, { type Transporter } from 'nodemailer';
+import type { Attachment } from 'nodemailer/lib/mailer';
 import { APP_CONFIG, type AppConfig } from '../config/config';
 
 export interface OutgoingMail {
@@ -7,6 +8,8 @@ export interface OutgoingMail {
   subject: string;
   text: string;
   html?: string;
+  /** nodemailer attachments: { filename, content: Buffer, contentType }. */
+  attachments?: Attachment[];
 }
 
 /** Sends mail through SMTP: maildev on loopback in development, an in-process server in tests. */

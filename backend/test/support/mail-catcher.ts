@@ -7,6 +7,7 @@ export interface CaughtMail {
   subject: string;
   text: string;
   html: string;
+  attachments: { filename: string | undefined; contentType: string; content: Buffer }[];
 }
 
 /** An SMTP server inside the test process: every message sent to it is parsed and kept. */
@@ -25,6 +26,11 @@ export async function startMailCatcher() {
             subject: mail.subject ?? '',
             text: mail.text ?? '',
             html: typeof mail.html === 'string' ? mail.html : '',
+            attachments: mail.attachments.map((a) => ({
+              filename: a.filename,
+              contentType: a.contentType,
+              content: a.content,
+            })),
           });
           callback();
         })

@@ -37,3 +37,4 @@ export { earliestDigDate, oneCallNonBusinessDayReasons, DIG_CAUTIONS } from './e
 export type { EarliestDigDateInput, EarliestDigDateResult } from './earliest-dig-date';
 export { depositRules, CONTRACT_PROPERTY_KINDS, FTC_429_BUYER_STATEMENT } from './deposit-rules';
 export type { ContractClock, ContractNotice, DepositRulesInput, DepositRulesResult } from './deposit-rules';
+export { cancellationWindowOpen, endOfDayInZone, todayInZone } from './zoned-today';
