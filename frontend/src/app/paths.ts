@@ -42,6 +42,45 @@ export const paths = {
     pattern: '/admin/users',
     href: () => '/admin/users',
   },
+  leads: {
+    pattern: '/leads',
+    href: () => '/leads',
+  },
+  newLead: {
+    pattern: '/leads/new',
+    href: () => '/leads/new',
+  },
+  lead: {
+    pattern: '/leads/:leadId',
+    href: (leadId: string) => generatePath('/leads/:leadId', { leadId }),
+  },
+  inspection: {
+    pattern: '/inspections/:inspectionId',
+    href: (inspectionId: string) => generatePath('/inspections/:inspectionId', { inspectionId }),
+  },
+  priceBook: {
+    pattern: '/admin/price-book',
+    href: () => '/admin/price-book',
+  },
+  newProposal: {
+    pattern: '/leads/:leadId/proposals/new',
+    href: (leadId: string) => generatePath('/leads/:leadId/proposals/new', { leadId }),
+  },
+  /** The e-mails link here: keep the path. */
+  proposal: {
+    pattern: '/proposals/:proposalId',
+    href: (proposalId: string) => generatePath('/proposals/:proposalId', { proposalId }),
+  },
+  /** The e-mails link here: keep the path. */
+  approvals: {
+    pattern: '/approvals',
+    href: () => '/approvals',
+  },
+  /** The homeowner's signing page: public, outside the signed-in frame. */
+  sign: {
+    pattern: '/sign/:token',
+    href: (token: string) => generatePath('/sign/:token', { token }),
+  },
 } as const;
 
 /**

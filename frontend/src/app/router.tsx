@@ -18,6 +18,15 @@ const BranchesRoute = lazy(() => import('@/features/branches/routes/branches'));
 const BranchNewRoute = lazy(() => import('@/features/branches/routes/branch-new'));
 const BranchEditRoute = lazy(() => import('@/features/branches/routes/branch-edit'));
 const UsersRoute = lazy(() => import('@/features/users/routes/users'));
+const PipelineRoute = lazy(() => import('@/features/leads/routes/pipeline'));
+const LeadNewRoute = lazy(() => import('@/features/leads/routes/lead-new'));
+const LeadRoute = lazy(() => import('@/features/leads/routes/lead'));
+const InspectionRoute = lazy(() => import('@/features/inspections/routes/inspection'));
+const PriceBookRoute = lazy(() => import('@/features/price-book/routes/price-book'));
+const ProposalNewRoute = lazy(() => import('@/features/proposals/routes/proposal-new'));
+const ProposalRoute = lazy(() => import('@/features/proposals/routes/proposal'));
+const ApprovalsRoute = lazy(() => import('@/features/approvals/routes/approvals'));
+const SignRoute = lazy(() => import('@/features/signing/routes/sign'));
 const NotFoundRoute = lazy(() => import('./routes/not-found'));
 
 const publicPage = (page: ReactNode) => <Suspense fallback={<PageLoading />}>{page}</Suspense>;
@@ -32,6 +41,7 @@ export const routes: RouteObject[] = [
     children: [
       { path: paths.signIn.pattern, element: publicPage(<SignInRoute />) },
       { path: paths.setPassword.pattern, element: publicPage(<SetPasswordRoute />) },
+      { path: paths.sign.pattern, element: publicPage(<SignRoute />) },
       {
         element: (
           <RequireAuth>
@@ -53,6 +63,32 @@ export const routes: RouteObject[] = [
             element: guarded((a) => a.can('update', 'Branch'), <BranchEditRoute />),
           },
           { path: paths.people.pattern, element: guarded((a) => adminAccess(a).people, <UsersRoute />) },
+          { path: paths.leads.pattern, element: guarded((a) => a.can('read', 'Lead'), <PipelineRoute />) },
+          {
+            path: paths.newLead.pattern,
+            element: guarded((a) => a.can('create', 'Lead'), <LeadNewRoute />),
+          },
+          { path: paths.lead.pattern, element: guarded((a) => a.can('read', 'Lead'), <LeadRoute />) },
+          {
+            path: paths.inspection.pattern,
+            element: guarded((a) => a.can('read', 'Inspection'), <InspectionRoute />),
+          },
+          {
+            path: paths.priceBook.pattern,
+            element: guarded((a) => a.can('read', 'PriceBook'), <PriceBookRoute />),
+          },
+          {
+            path: paths.newProposal.pattern,
+            element: guarded((a) => a.can('create', 'Proposal'), <ProposalNewRoute />),
+          },
+          {
+            path: paths.proposal.pattern,
+            element: guarded((a) => a.can('read', 'Proposal'), <ProposalRoute />),
+          },
+          {
+            path: paths.approvals.pattern,
+            element: guarded((a) => a.can('approve', 'Proposal'), <ApprovalsRoute />),
+          },
           { path: '*', element: <NotFoundRoute /> },
         ],
       },

@@ -1,5 +1,7 @@
 import { NavLink } from 'react-router';
 import { useAppAbility, adminAccess } from '@/features/auth/ability';
+import { ApprovalsNavItem } from '@/features/approvals/components/approvals-nav-item';
+import { PriceBookNavItem } from '@/features/price-book/components/price-book-nav-item';
 import { paths } from '../paths';
 
 const linkClass = ({ isActive }: { isActive: boolean }) =>
@@ -7,7 +9,8 @@ const linkClass = ({ isActive }: { isActive: boolean }) =>
 
 /** The main navigation: only what the person's role includes. */
 export function AppNav({ onNavigate }: { onNavigate?: () => void }) {
-  const access = adminAccess(useAppAbility());
+  const ability = useAppAbility();
+  const access = adminAccess(ability);
   return (
     <nav aria-label="Main" className="app-nav">
       <ul className="app-nav__list">
@@ -17,6 +20,15 @@ export function AppNav({ onNavigate }: { onNavigate?: () => void }) {
             <span>Home</span>
           </NavLink>
         </li>
+        {ability.can('read', 'Lead') ? (
+          <li>
+            <NavLink to={paths.leads.href()} className={linkClass} onClick={onNavigate}>
+              <i className="pi pi-map-marker" aria-hidden="true" />
+              <span>Leads</span>
+            </NavLink>
+          </li>
+        ) : null}
+        <ApprovalsNavItem onNavigate={onNavigate} idPrefix={onNavigate ? 'm-' : ''} />
       </ul>
       {access.branches || access.people ? (
         <div className="app-nav__group" role="group" aria-labelledby={`${onNavigate ? 'm-' : ''}nav-admin`}>
@@ -40,6 +52,7 @@ export function AppNav({ onNavigate }: { onNavigate?: () => void }) {
                 </NavLink>
               </li>
             ) : null}
+            <PriceBookNavItem onNavigate={onNavigate} />
           </ul>
         </div>
       ) : null}

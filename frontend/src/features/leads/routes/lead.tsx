@@ -1,0 +1,252 @@
+import '../leads.css';
+import { useState } from 'react';
+import { Link, useParams } from 'react-router';
+import { Button } from 'primereact/button';
+import { Card } from 'primereact/card';
+import { Message } from 'primereact/message';
+import { asSubject, FOUNDATION_TYPE_LABELS, type LeadDetail } from '@loambook/common';
+import { paths } from '@/app/paths';
+import { NotFound } from '@/app/routes/not-found';
+import { ApiErrorMessage } from '@/components/api-error-message';
+import { PageLoading } from '@/components/loading';
+import { useNotify } from '@/components/notify';
+import { isApiError } from '@/lib/api-client';
+import { formatDate, formatDateTime } from '@/lib/format';
+import { useAppAbility } from '@/features/auth/ability';
+import { useCurrentUser } from '@/features/auth/auth-provider';
+import { useCurrentBranch } from '@/features/branches/current-branch';
+import { LeadInspections } from '@/features/inspections/components/lead-inspections';
+import { LeadProposals } from '@/features/proposals/components/lead-proposals';
+import { useLead } from '../api/get-lead';
+import { EditLeadDialog } from '../components/edit-lead-dialog';
+import { LeadHeader } from '../components/lead-header';
+import { LeadTimeline } from '../components/lead-timeline';
+import { LogActivityForm } from '../components/log-activity-form';
+import { MarkLostDialog } from '../components/mark-lost-dialog';
+import { TransferDialog } from '../components/transfer-dialog';
+import { withWeekday } from '../lead-format';
+
+export default function LeadRoute() {
+  const { leadId = '' } = useParams();
+  const lead = useLead(leadId);
+  if (lead.isPending) return <PageLoading label="Loading lead" />;
+  if (lead.isError) {
+    if (isApiError(lead.error) && (lead.error.status === 404 || lead.error.status === 400))
+      return <NotFound />;
+    return (
+      <div className="page">
+        <ApiErrorMessage error={lead.error} />
+      </div>
+    );
+  }
+  return <LeadPage key={lead.data.id} lead={lead.data} />;
+}
+
+type Open = null | 'edit' | 'lost' | 'transfer';
+
+function LeadPage({ lead }: { lead: LeadDetail }) {
+  const ability = useAppAbility();
+  const user = useCurrentUser();
+  const notify = useNotify();
+  const { branches } = useCurrentBranch();
+  const [open, setOpen] = useState<Open>(null);
+
+  const subject = asSubject('Lead', { branchId: lead.branchId, salespersonId: lead.salespersonId });
+  const canUpdate = !lead.readOnly && ability.can('update', subject);
+  const manages = user.role === 'owner' || user.role === 'branch_manager';
+  const lost = lead.moves.find((m) => m.to === 'lost');
+  const closed = lead.stage === 'lost' || lead.stage === 'cancelled';
+  const canBook =
+    !lead.readOnly &&
+    !closed &&
+    ability.can(
+      'create',
+      asSubject('Inspection', { branchId: lead.branchId, salespersonId: lead.salespersonId }),
+    );
+
+  const actions = canUpdate ? (
+    <>
+      <Button type="button" label="Edit lead" icon="pi pi-pencil" outlined onClick={() => setOpen('edit')} />
+      {manages ? (
+        <Button
+          type="button"
+          label="Transfer"
+          icon="pi pi-arrow-right-arrow-left"
+          outlined
+          onClick={() => setOpen('transfer')}
+        />
+      ) : null}
+      {lost?.allowed ? (
+        <Button
+          type="button"
+          label="Mark lost"
+          icon="pi pi-times"
+          severity="danger"
+          outlined
+          onClick={() => setOpen('lost')}
+        />
+      ) : null}
+    </>
+  ) : null;
+
+  return (
+    <div className="page page--wide lead-page">
+      <Link to={paths.leads.href()} className="back-link">
+        <i className="pi pi-arrow-left" aria-hidden="true" /> Leads
+      </Link>
+
+      {lead.readOnly ? (
+        <Message
+          severity="info"
+          className="w-full"
+          text={`Read only: this lead was transferred to ${lead.branchCode}. ${lead.branchCode}’s team works it now; you see it for the record.`}
+        />
+      ) : null}
+      {lead.stage === 'lost' ? (
+        <Message
+          severity="warn"
+          className="w-full"
+          text={`Lost${lead.lostReason ? `: ${lead.lostReason}` : '.'}`}
+        />
+      ) : null}
+      {lead.lastDayToCancel ? (
+        <Message
+          severity="info"
+          className="w-full"
+          text={`The homeowner can cancel the signed contract until ${withWeekday(lead.lastDayToCancel)} (3-day right to cancel, 16 CFR 429). Order no materials and start no work before then.`}
+        />
+      ) : null}
+
+      <Card className="content-card">
+        <LeadHeader lead={lead} actions={actions} />
+      </Card>
+
+      <div className="lead-layout">
+        <div className="lead-layout__main">
+          {lead.readOnly ? (
+            <Card className="content-card">
+              <p className="muted lead-readonly-note">
+                Its inspections, photos and proposals moved with it to {lead.branchCode}; the timeline below
+                is the history up to now.
+              </p>
+            </Card>
+          ) : (
+            <>
+              <Card className="content-card">
+                <LeadInspections
+                  leadId={lead.id}
+                  branchId={lead.branchId}
+                  homeownerName={lead.homeownerName}
+                  canBook={canBook}
+                />
+              </Card>
+              <Card className="content-card">
+                <section className="lead-section" aria-labelledby="lead-proposals-title">
+                  <h2 id="lead-proposals-title" className="lead-section__title">
+                    Proposals
+                  </h2>
+                  <LeadProposals leadId={lead.id} />
+                </section>
+              </Card>
+            </>
+          )}
+          <Card className="content-card">
+            {/* Not labelled by its heading: "Timeline" would also answer to the booking dialog's "Time". */}
+            <section className="lead-section">
+              <h2 id="lead-timeline-title" className="lead-section__title">
+                Timeline
+              </h2>
+              {canUpdate ? <LogActivityForm leadId={lead.id} /> : null}
+              <LeadTimeline activities={lead.activities} />
+            </section>
+          </Card>
+        </div>
+
+        <aside className="lead-layout__side">
+          <Card className="content-card">
+            <section className="lead-section" aria-labelledby="lead-property-title">
+              <h2 id="lead-property-title" className="lead-section__title">
+                Property
+              </h2>
+              <dl className="fact-list">
+                <div>
+                  <dt>Year built</dt>
+                  <dd>{lead.yearBuilt ?? '—'}</dd>
+                </div>
+                <div>
+                  <dt>Foundation</dt>
+                  <dd>
+                    {lead.foundationType ? FOUNDATION_TYPE_LABELS[lead.foundationType] : 'Not known yet'}
+                  </dd>
+                </div>
+                <div>
+                  <dt>Source</dt>
+                  <dd>{lead.source ?? '—'}</dd>
+                </div>
+                <div>
+                  <dt>Entered</dt>
+                  <dd>{formatDate(lead.createdAt)}</dd>
+                </div>
+              </dl>
+              {lead.notes ? <p className="lead-notes">{lead.notes}</p> : null}
+            </section>
+          </Card>
+          {lead.transfers.length ? (
+            <Card className="content-card">
+              <section className="lead-section" aria-labelledby="lead-transfers-title">
+                <h2 id="lead-transfers-title" className="lead-section__title">
+                  Transfers
+                </h2>
+                <ol className="transfer-list">
+                  {lead.transfers.map((t) => (
+                    <li key={t.id}>
+                      <span className="strong">
+                        {t.fromBranchCode} → {t.toBranchCode}
+                      </span>{' '}
+                      <span className="muted">
+                        {formatDateTime(t.createdAt)} · {t.transferredByName}
+                      </span>
+                      {t.note ? <p className="transfer-list__note">{t.note}</p> : null}
+                    </li>
+                  ))}
+                </ol>
+              </section>
+            </Card>
+          ) : null}
+        </aside>
+      </div>
+
+      {canUpdate ? (
+        <>
+          <EditLeadDialog
+            lead={lead}
+            visible={open === 'edit'}
+            chooseSalesperson={manages}
+            onClose={() => setOpen(null)}
+          />
+          <MarkLostDialog
+            lead={lead}
+            visible={open === 'lost'}
+            onClose={() => setOpen(null)}
+            onDone={(l) => {
+              setOpen(null);
+              notify.success('Marked lost', `${l.homeownerName} has left the open pipeline.`);
+            }}
+          />
+          {manages ? (
+            <TransferDialog
+              lead={lead}
+              branches={branches}
+              visible={open === 'transfer'}
+              onClose={() => setOpen(null)}
+              onDone={(l) => {
+                setOpen(null);
+                notify.success('Lead transferred', `${l.homeownerName} now belongs to ${l.branchCode}.`);
+              }}
+            />
+          ) : null}
+        </>
+      ) : null}
+    </div>
+  );
+}
