@@ -9,5 +9,7 @@ export default defineConfig({
     fileParallelism: false,
     testTimeout: 120_000,
     hookTimeout: 180_000,
+    // expect.poll waits 1 s by default: too short for a busy two-core CI machine driving a browser.
+    expect: { poll: { timeout: 15_000, interval: 100 } },
   },
 });
