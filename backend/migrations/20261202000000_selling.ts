@@ -52,6 +52,7 @@ export async function up(knex: Knex): Promise<void> {
     create index leads_stage_changed_idx on leads (stage_changed_at, id);
     create index leads_branch_stage_value_idx on leads (branch_id, stage) include (value, created_at);
     create index leads_branch_value_idx on leads (branch_id, value desc, id);
+    create index leads_stage_value_idx on leads (stage, value desc, id);
     create index leads_branch_created_idx on leads (branch_id, created_at desc);
     create index leads_search_trgm_idx on leads using gin (search_text gin_trgm_ops);
     create index leads_phone_trgm_idx on leads using gin (phone_key gin_trgm_ops);
