@@ -3,6 +3,7 @@ import * as foundation from './20261201000000_foundation';
 import * as selling from './20261202000000_selling';
 import * as proposalPricing from './20261202014000_proposal_pricing';
 import * as signing from './20261202016000_signing';
+import * as jobs from './20261203000000_jobs';
 
 /**
  * Every migration, in order. Listed here (not found on disk) so that the compiled server and the tests,
@@ -14,4 +15,5 @@ export const MIGRATIONS: ReadonlyArray<readonly [string, Knex.Migration]> = [
   ['20261202000000_selling', selling],
   ['20261202014000_proposal_pricing', proposalPricing],
   ['20261202016000_signing', signing],
+  ['20261203000000_jobs', jobs],
 ];

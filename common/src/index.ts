@@ -12,3 +12,4 @@ export * from './api/leads';
 export * from './inspections';
 export * from './pricing';
 export * from './signing';
+export * from './jobs';
