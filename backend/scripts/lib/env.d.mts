@@ -11,4 +11,11 @@ export const pg: {
 export const mail: { smtpPort: number; webPort: number };
 export const s3: { port: number; bucket: string };
 export const app: { port: number };
+export const stripe: {
+  fakePort: number;
+  secretKey: string;
+  webhookSecret: string;
+  webhookUrl: string;
+  payoutIntervalMs: number;
+};
 export function log(message: string): void;

@@ -29,6 +29,16 @@ export const app = {
   port: Number(process.env.PORT ?? 3000),
 };
 
+// The local card-processor fake (backend/fakes/stripe): the app's SDK talks to it with these test keys,
+// and it signs the webhooks it posts to the app with the local endpoint secret. Not real credentials.
+export const stripe = {
+  fakePort: Number(process.env.STRIPE_FAKE_PORT ?? 12111),
+  secretKey: process.env.STRIPE_SECRET_KEY ?? 'sk_test_local_loambook',
+  webhookSecret: process.env.STRIPE_WEBHOOK_SECRET ?? 'whsec_local_loambook_not_a_real_secret',
+  webhookUrl: process.env.STRIPE_WEBHOOK_URL ?? `http://127.0.0.1:${app.port}/api/payments/webhook`,
+  payoutIntervalMs: Number(process.env.PAYOUT_INTERVAL_MS ?? 300_000),
+};
+
 export function log(message) {
   console.log(`[loambook] ${message}`);
 }

@@ -1,10 +1,13 @@
 // The local stand-ins for hosted services, each a detached process on 127.0.0.1 with a pid file:
 // maildev (the development mail inbox) and s3rver (file storage through the S3 API).
+// Also the card-processor fake (backend/fakes/stripe), which posts signed webhooks to the app.
 import { spawn } from 'node:child_process';
 import { existsSync, mkdirSync, openSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { readdirSync, statSync } from 'node:fs';
 import net from 'node:net';
 import path from 'node:path';
-import { mail, log, REPO, s3, STATE_DIR } from './env.mjs';
+import { mail, log, REPO, s3, STATE_DIR, stripe } from './env.mjs';
 
 const RUN_DIR = path.join(STATE_DIR, 'run');
 
@@ -34,7 +37,7 @@ function packageFile(pkg, file) {
 }
 
 /** Starts `node <script> <args>` detached unless it already runs; waits for its port. */
-async function startDetached(name, script, args, port) {
+async function startDetached(name, script, args, port, env = {}) {
   const pidFile = path.join(RUN_DIR, `${name}.pid`);
   if (existsSync(pidFile) && alive(Number(readFileSync(pidFile, 'utf8')), name)) return false;
   if (await portOpen(port)) {
@@ -46,6 +49,7 @@ async function startDetached(name, script, args, port) {
   const child = spawn(process.execPath, [script, ...args], {
     detached: true,
     stdio: ['ignore', logFd, logFd],
+    env: { ...process.env, ...env },
   });
   child.unref();
   writeFileSync(pidFile, String(child.pid));
@@ -110,13 +114,51 @@ export async function startS3() {
   return `http://127.0.0.1:${s3.port}`;
 }
 
+const STRIPE_FAKE_SRC = path.join(REPO, 'backend/fakes/stripe');
+const STRIPE_FAKE_MAIN = path.join(REPO, 'backend/dist/backend/fakes/stripe/main.js');
+
+/** npm start runs the fakes before the full build: compile the card-processor fake alone when stale. */
+function ensureStripeFakeBuilt() {
+  const built = existsSync(STRIPE_FAKE_MAIN) ? statSync(STRIPE_FAKE_MAIN).mtimeMs : 0;
+  const sources = readdirSync(STRIPE_FAKE_SRC).filter((f) => f.endsWith('.ts') || f === 'tsconfig.json');
+  if (sources.every((f) => statSync(path.join(STRIPE_FAKE_SRC, f)).mtimeMs <= built)) return;
+  log('Compiling the card-processor fake');
+  const tsc = packageFile('typescript', 'bin/tsc');
+  const r = spawnSync(process.execPath, [tsc, '-p', path.join(STRIPE_FAKE_SRC, 'tsconfig.json')], {
+    stdio: 'inherit',
+  });
+  if (r.status !== 0) throw new Error('The card-processor fake did not compile');
+}
+
+export async function startStripeFake() {
+  ensureStripeFakeBuilt();
+  // The label in argv lets the pid check recognise the process (main.js ignores its arguments).
+  const started = await startDetached(
+    'stripe-fake',
+    STRIPE_FAKE_MAIN,
+    ['--label=stripe-fake'],
+    stripe.fakePort,
+    {
+      STRIPE_FAKE_PORT: String(stripe.fakePort),
+      STRIPE_WEBHOOK_URL: stripe.webhookUrl,
+      STRIPE_WEBHOOK_SECRET: stripe.webhookSecret,
+      PAYOUT_INTERVAL_MS: String(stripe.payoutIntervalMs),
+    },
+  );
+  const url = `http://127.0.0.1:${stripe.fakePort}`;
+  if (started) log(`card-processor fake started (API ${url}/v1, webhooks to ${stripe.webhookUrl})`);
+  return url;
+}
+
 export async function startFakes() {
   const inbox = await startMaildev();
   const storage = await startS3();
-  return { inbox, storage };
+  const payments = await startStripeFake();
+  return { inbox, storage, payments };
 }
 
 export function stopFakes() {
   stopDetached('maildev');
   stopDetached('s3rver');
+  stopDetached('stripe-fake');
 }
