@@ -41,6 +41,8 @@ export interface JobClock {
   state: 'not_started' | 'running' | 'due_soon' | 'overdue' | 'met';
   daysLeft: number | null;
   source: string;
+  /** The day the thing was done (permit applied for, work started), when it has been. */
+  doneOn?: string | null;
 }
 
 /** Why a job cannot start yet on a given day (each with a code, as the 409 answers). */
@@ -123,7 +125,14 @@ export interface JobDetail extends JobSummary {
   labourCostPerHour: string | null;
   cautions: string[];
   /** What the signed-in user may do here. */
-  can: { schedule: boolean; editPermits: boolean; log: boolean; complete: boolean };
+  can: {
+    schedule: boolean;
+    editPermits: boolean;
+    log: boolean;
+    complete: boolean;
+    /** Costs are shown (plan unit costs, labour cost per hour); false for a crew lead, whose are "0.00"/null. */
+    seeCosts?: boolean;
+  };
 }
 
 export interface JobListResponse {
@@ -291,6 +300,13 @@ export interface SurveyComparison {
   afterWorstRatio: string | null;
   /** Per label found in both: the change in inches. */
   changes: { label: string; beforeIn: string; afterIn: string; changeIn: string }[];
+  /** The screening band of each side's worst pair (settlement calculator), null without a survey. */
+  beforeBand?: string | null;
+  afterBand?: string | null;
+  /** Both surveys measure from the same reference point, so the per-label changes compare like with like. */
+  sameReference?: boolean;
+  /** A screening comparison, not an engineering determination. */
+  caution?: string;
 }
 
 export interface JobActuals {
@@ -305,6 +321,8 @@ export interface JobActuals {
   material: { plannedLb: string; usedLb: string; unitCost: string | null };
   piers: { planned: string; installed: number };
   labour: { estimatedHours: string | null; actualHours: string; costPerHour: string | null };
+  /** Injection points logged against the plan's soil-stabilisation 'point' lines. */
+  injectionPoints?: { planned: string; installed: number };
   lines: {
     code: string;
     description: string;
@@ -313,6 +331,8 @@ export interface JobActuals {
     unitCost: string;
     plannedCost: string;
     actualCost: string;
+    /** What in the log gave the actual quantity; null: not measured, the planned quantity stands. */
+    measuredBy?: 'lb' | 'injection_points' | 'push_piers' | 'helical_piles' | 'labour_hours' | null;
   }[];
 }
 
