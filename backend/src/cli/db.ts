@@ -8,6 +8,7 @@ import { knexConfig } from '../database/knex-config';
 import { migrateLatest } from '../database/migrate';
 import { seed } from '../../../seeds/01-demo-company';
 import { seed as seedPriceBook } from '../../../seeds/02-demo-price-book';
+import { seed as seedCrews } from '../../../seeds/03-demo-crews';
 
 async function main(args: string[]): Promise<void> {
   const config = loadConfig();
@@ -20,6 +21,7 @@ async function main(args: string[]): Promise<void> {
     if (args.includes('seed')) {
       await seed(db);
       await seedPriceBook(db);
+      await seedCrews(db);
       console.log('Demo company is in place.');
     }
   } finally {

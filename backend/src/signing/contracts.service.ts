@@ -21,6 +21,7 @@ import type { SessionUser } from '../auth/session-user';
 import { LeadsRepository } from '../leads/leads.repository';
 import { LeadsService } from '../leads/leads.service';
 import { MailService } from '../mail/mail.service';
+import { JobsService } from '../jobs/jobs.service';
 import { Clock } from './clock';
 import { SigningDocuments } from './signing-documents.service';
 import { cancellationConfirmedMail, cancellationNoticeMail } from './signing-mails';
@@ -66,6 +67,7 @@ export class ContractsService {
     private readonly clock: Clock,
     @Inject(KNEX) private readonly knex: Knex,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly jobs: JobsService,
   ) {}
 
   async get(user: SessionUser, id: string): Promise<ContractView> {
@@ -125,6 +127,7 @@ export class ContractsService {
       { at: x.now, byKind: x.byKind, by: x.by?.id ?? null, note: x.note },
       trx,
     );
+    await this.jobs.cancelForContract(c.id, x.now, trx); // issue #4: both cancel paths come through here
     const lead = (await this.repo.lead(c.leadId, trx, true))!;
     const moved = await this.moveLead(lead, 'cancelled', x.by?.id ?? null, trx);
     const who =

@@ -16,6 +16,6 @@ import { SigningService } from './signing.service';
   imports: [ProposalsModule, LeadsModule, StorageModule],
   controllers: [SigningController, ProposalSigningController, ContractsController],
   providers: [Clock, SigningRepository, SigningDocuments, SigningService, ContractsService],
-  exports: [ContractsService],
+  exports: [ContractsService, Clock],
 })
 export class SigningModule {}

@@ -25,6 +25,7 @@ import { inTransaction } from '../database/transaction';
 import { conflict, DomainError, invalid, notFound } from '../common/domain-error';
 import type { SessionUser } from '../auth/session-user';
 import { MailService } from '../mail/mail.service';
+import { JobsService } from '../jobs/jobs.service';
 import { ProposalsRepository, type ProposalRecord } from '../proposals/proposals.repository';
 import { ProposalsService } from '../proposals/proposals.service';
 import { Clock } from './clock';
@@ -107,6 +108,7 @@ export class SigningService {
     private readonly clock: Clock,
     @Inject(KNEX) private readonly knex: Knex,
     @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly jobs: JobsService,
   ) {}
 
   // ---- staff: the proposal PDF and sending ---------------------------------------------------------
@@ -499,6 +501,7 @@ export class SigningService {
       if ((e as { code?: string }).code === '23505') throw alreadySigned();
       throw e;
     }
+    await this.jobs.createForContract(id, trx); // issue #4: the job, with the option's lines as its plan
     await this.proposalsRepo.updateProposal(p.id, { status: 'signed' }, trx);
 
     const lead = (await this.repo.lead(p.leadId, trx, true))!;

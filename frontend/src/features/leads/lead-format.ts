@@ -89,6 +89,8 @@ export const ACTIVITY_KINDS: Record<string, { icon: string; label: string }> = {
   approval: { icon: 'pi-check-circle', label: 'Approval' },
   contract: { icon: 'pi-pen-to-square', label: 'Contract' },
   cancellation: { icon: 'pi-times-circle', label: 'Cancellation' },
+  job: { icon: 'pi-wrench', label: 'Job' },
+  payment: { icon: 'pi-credit-card', label: 'Payment' },
 };
 
 export function activityKind(kind: string): { icon: string; label: string } {
