@@ -10,7 +10,7 @@ describe('the migration list', () => {
   const names = MIGRATIONS.map(([name]) => name);
 
   it('lists every migration file on disk exactly once', () => {
-    const dir = path.resolve(import.meta.dirname, '../../migrations');
+    const dir = path.resolve(__dirname, '../../migrations');
     const files = readdirSync(dir)
       .filter((f) => /^\d{14}_.+\.ts$/.test(f))
       .map((f) => f.replace(/\.ts$/, ''))

@@ -1,0 +1,9 @@
+import { api } from '@/lib/api-client';
+import type { CreateMatchRequest, MatchView } from './types';
+import { useReconciliationMutation } from './use-reconciliation-mutation';
+
+export function createMatch(body: CreateMatchRequest): Promise<MatchView> {
+  return api.post<MatchView>('/reconciliation/matches', body);
+}
+
+export const useCreateMatch = () => useReconciliationMutation(createMatch);

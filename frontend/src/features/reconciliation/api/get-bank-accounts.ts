@@ -1,0 +1,17 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { api } from '@/lib/api-client';
+import type { BankAccount } from './types';
+
+export function getBankAccounts(signal?: AbortSignal): Promise<BankAccount[]> {
+  return api.get<BankAccount[]>('/bank-accounts', { signal });
+}
+
+export const bankAccountsQueryOptions = () =>
+  queryOptions({
+    queryKey: ['reconciliation', 'bank-accounts'],
+    queryFn: ({ signal }) => getBankAccounts(signal),
+  });
+
+export function useBankAccounts() {
+  return useQuery(bankAccountsQueryOptions());
+}

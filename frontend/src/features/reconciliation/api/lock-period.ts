@@ -1,0 +1,9 @@
+import { api } from '@/lib/api-client';
+import type { LockPeriodRequest, ReconciledPeriod } from './types';
+import { useReconciliationMutation } from './use-reconciliation-mutation';
+
+export function lockPeriod(body: LockPeriodRequest): Promise<ReconciledPeriod> {
+  return api.post<ReconciledPeriod>('/reconciliation/lock', body);
+}
+
+export const useLockPeriod = () => useReconciliationMutation(lockPeriod);
