@@ -1,0 +1,17 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { api } from '@/lib/api-client';
+import type { CommissionPlanView } from './types';
+
+export function getCommissionPlans(signal?: AbortSignal): Promise<CommissionPlanView[]> {
+  return api.get<CommissionPlanView[]>('/commission-plans', { signal });
+}
+
+export const commissionPlansQueryOptions = () =>
+  queryOptions({
+    queryKey: ['commissions', 'plans', 'list'],
+    queryFn: ({ signal }) => getCommissionPlans(signal),
+  });
+
+export function useCommissionPlans() {
+  return useQuery(commissionPlansQueryOptions());
+}
