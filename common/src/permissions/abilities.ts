@@ -75,6 +75,8 @@ export function defineRulesFor(user: AbilityUser): AppRule[] {
       can('manage', 'Job', { branchId: ownBranches });
       can('read', 'Payment', { branchId: ownBranches });
       can('read', 'CommissionStatement', { branchId: ownBranches });
+      // The plans that pay their people: their branches' own and the company-wide default (branchId null).
+      can('read', 'CommissionPlan', { branchId: { $in: [...user.branchIds, null] } });
       break;
 
     case 'salesperson':
