@@ -49,6 +49,8 @@ async function freePort(): Promise<number> {
 
 export interface Stack {
   baseUrl: string;
+  /** The journey's own database (for the few facts a journey sets directly, e.g. a deposit received). */
+  database: string;
   mail: MailCatcher;
   browser: Browser;
   shotsDir: string;
@@ -115,6 +117,7 @@ export async function startStack(journey: string): Promise<Stack> {
 
   return {
     baseUrl,
+    database,
     mail,
     browser,
     shotsDir,
