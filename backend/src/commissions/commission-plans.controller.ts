@@ -1,8 +1,8 @@
 import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Patch, Post } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
+import type { CommissionPlanView } from '@loambook/common';
 import { Can, CurrentUser } from '../common/decorators';
 import type { SessionUser } from '../auth/session-user';
-import type { CommissionPlanView } from './commission-views';
 import { CommissionPlansService } from './commission-plans.service';
 import { CreateCommissionPlanDto, UpdateCommissionPlanDto } from './dto/commissions.dto';
 

@@ -5,13 +5,15 @@ import {
   validateCommissionPlan,
   type CommissionIssue,
   type CommissionPlan,
+  type CommissionPlanInput,
+  type CommissionPlanPatch,
+  type CommissionPlanView,
   type CommissionRate,
   type CommissionTier,
 } from '@loambook/common';
 import type { SessionUser } from '../auth/session-user';
 import { conflict, notFound } from '../common/domain-error';
 import { commissionRule, pgError } from './commission-errors';
-import type { CommissionPlanInput, CommissionPlanPatch, CommissionPlanView } from './commission-views';
 import { CommissionsRepository, type NewPlan } from './commissions.repository';
 
 const MAX_TIERS = 20;

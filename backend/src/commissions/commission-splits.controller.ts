@@ -1,8 +1,8 @@
 import { Body, Controller, Get, Param, ParseUUIDPipe, Put } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
+import type { ContractCommissionSplitsView } from '@loambook/common';
 import { Can, CurrentUser } from '../common/decorators';
 import type { SessionUser } from '../auth/session-user';
-import type { ContractCommissionSplitsView } from './commission-views';
 import { CommissionSplitsService } from './commission-splits.service';
 import { SetCommissionSplitsDto } from './dto/commissions.dto';
 

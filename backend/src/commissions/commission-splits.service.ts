@@ -7,13 +7,14 @@ import {
   validateSplits,
   type CommissionBreakdown,
   type CommissionDeal,
+  type ContractCommissionSplitsView,
+  type SetCommissionSplitsInput,
 } from '@loambook/common';
 import type { SessionUser } from '../auth/session-user';
 import { KNEX } from '../database/database.module';
 import { inTransaction } from '../database/transaction';
 import { conflict, DomainError, notFound } from '../common/domain-error';
 import { commissionRule, pgError } from './commission-errors';
-import type { ContractCommissionSplitsView, SetCommissionSplitsInput } from './commission-views';
 import {
   CommissionsRepository,
   type CommissionContract,

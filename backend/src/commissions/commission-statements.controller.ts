@@ -1,13 +1,13 @@
 import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
-import { Can, CurrentUser } from '../common/decorators';
-import type { SessionUser } from '../auth/session-user';
 import type {
   BuildStatementsResult,
   CommissionStatementDetail,
   CommissionStatementSummary,
   EarningRunResult,
-} from './commission-views';
+} from '@loambook/common';
+import { Can, CurrentUser } from '../common/decorators';
+import type { SessionUser } from '../auth/session-user';
 import { CommissionStatementsService } from './commission-statements.service';
 import { CommissionsService } from './commissions.service';
 import { BuildStatementsQueryDto, PayStatementDto, StatementsQueryDto } from './dto/commissions.dto';

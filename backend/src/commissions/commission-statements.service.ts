@@ -9,7 +9,12 @@ import {
   nextPayPeriod,
   payPeriodFor,
   statementLines,
+  type BuildStatementsResult,
   type ClosedStatementRef,
+  type CommissionStatementDetail,
+  type CommissionStatementStatus,
+  type CommissionStatementSummary,
+  type PayStatementInput,
   type StatementLineInput,
 } from '@loambook/common';
 import type { SessionUser } from '../auth/session-user';
@@ -18,13 +23,6 @@ import { inTransaction } from '../database/transaction';
 import { conflict, DomainError, notFound } from '../common/domain-error';
 import { LedgerService } from '../ledger/ledger.service';
 import { rethrowCommissionError } from './commission-errors';
-import type {
-  BuildStatementsResult,
-  CommissionStatementDetail,
-  CommissionStatementStatus,
-  CommissionStatementSummary,
-  PayStatementInput,
-} from './commission-views';
 import {
   CommissionsRepository,
   type LineRow,

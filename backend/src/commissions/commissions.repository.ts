@@ -5,16 +5,14 @@ import type {
   CommissionMilestone,
   CommissionPlan,
   CommissionPlanBasis,
-  CommissionRate,
-} from '@loambook/common';
-import { KNEX } from '../database/database.module';
-import type { Db } from '../database/transaction';
-import type {
   CommissionPlanView,
+  CommissionRate,
   CommissionStatementLineView,
   CommissionStatementStatus,
   CommissionStatementSummary,
-} from './commission-views';
+} from '@loambook/common';
+import { KNEX } from '../database/database.module';
+import type { Db } from '../database/transaction';
 
 type Row = Record<string, unknown>;
 

@@ -9,6 +9,7 @@ import {
   type CommissionContractFacts,
   type CommissionLedgerLine,
   type CommissionMilestone,
+  type EarningRunResult,
   type Money,
 } from '@loambook/common';
 import { KNEX } from '../database/database.module';
@@ -16,7 +17,6 @@ import { inTransaction } from '../database/transaction';
 import { LedgerService } from '../ledger/ledger.service';
 import { Clock } from '../signing/clock';
 import { CommissionSplitsService, dealOf } from './commission-splits.service';
-import type { EarningRunResult } from './commission-views';
 import { CommissionsRepository, type CommissionContract, type LineRow } from './commissions.repository';
 
 const MILESTONE_MEMO: Record<CommissionMilestone, string> = {

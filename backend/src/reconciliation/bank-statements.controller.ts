@@ -15,6 +15,7 @@ import {
 import { FileInterceptor } from '@nestjs/platform-express';
 import { ApiBearerAuth, ApiBody, ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Request } from 'express';
+import type { BankAccount, BankStatement, BankStatementLine, BankStatementPreview } from '@loambook/common';
 import { Can, CurrentUser } from '../common/decorators';
 import { DomainError } from '../common/domain-error';
 import type { SessionUser } from '../auth/session-user';
@@ -32,12 +33,6 @@ import {
   StatementsQueryDto,
   UploadStatementDto,
 } from './dto/reconciliation.dto';
-import type {
-  BankAccount,
-  BankStatement,
-  BankStatementLine,
-  BankStatementPreview,
-} from './reconciliation.wire';
 
 const upload = FileInterceptor('file', { limits: { fileSize: BANK_CSV_MAX_BYTES, files: 1, fields: 6 } });
 

@@ -4,11 +4,17 @@ import {
   centsToMoneyString,
   parseBankCsv,
   suggestColumnMapping,
+  type BankAccount,
   type BankCsvAmountColumns,
   type BankCsvMapping,
   type BankCsvMappingSuggestion,
   type BankCsvRowError,
   type BankLine,
+  type BankStatement,
+  type BankStatementCheck,
+  type BankStatementLine,
+  type BankStatementPreview,
+  type BankStatementRowErrors,
 } from '@loambook/common';
 import type { SessionUser } from '../auth/session-user';
 import { conflict, DomainError, invalid, notFound } from '../common/domain-error';
@@ -17,14 +23,6 @@ import { inTransaction } from '../database/transaction';
 import { cleanFileName, sha256, splitCsv, type CsvFile } from './csv-file';
 import { isPgError, mayReconcile, reconciliationScope, translateError } from './reconciliation-access';
 import { ReconciliationRepository } from './reconciliation.repository';
-import type {
-  BankAccount,
-  BankStatement,
-  BankStatementCheck,
-  BankStatementLine,
-  BankStatementPreview,
-  BankStatementRowErrors,
-} from './reconciliation.wire';
 
 /** Rows shown in a preview. */
 export const PREVIEW_ROWS = 20;

@@ -1,5 +1,12 @@
 import { Body, Controller, Delete, Get, HttpCode, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
+import type {
+  MatchView,
+  PayoutBreakdownView,
+  ReconciledPeriod,
+  ReconciliationView,
+  SuggestResult,
+} from '@loambook/common';
 import { Can, CurrentUser } from '../common/decorators';
 import type { SessionUser } from '../auth/session-user';
 import {
@@ -10,13 +17,6 @@ import {
   SuggestQueryDto,
 } from './dto/reconciliation.dto';
 import { ReconciliationService } from './reconciliation.service';
-import type {
-  MatchView,
-  PayoutBreakdownView,
-  ReconciledPeriod,
-  ReconciliationView,
-  SuggestResult,
-} from './reconciliation.wire';
 
 /** The reconciliation workspace: suggestions, matches, locking; and what a payout is made of. */
 @ApiTags('reconciliation')

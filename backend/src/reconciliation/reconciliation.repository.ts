@@ -1,10 +1,10 @@
 import { Inject, Injectable } from '@nestjs/common';
 import type { Knex } from 'knex';
-import type { BankCsvMapping, BankCsvRowError, BankLine } from '@loambook/common';
-import { KNEX } from '../database/database.module';
-import type { Db } from '../database/transaction';
 import type {
   BankAccount,
+  BankCsvMapping,
+  BankCsvRowError,
+  BankLine,
   BankLineView,
   BankStatement,
   BankStatementLine,
@@ -15,7 +15,9 @@ import type {
   PayoutItemView,
   PayoutTarget,
   ReconciledPeriod,
-} from './reconciliation.wire';
+} from '@loambook/common';
+import { KNEX } from '../database/database.module';
+import type { Db } from '../database/transaction';
 
 /** Which branches' records a query may return: null means every branch. */
 export type BranchIds = string[] | null;

@@ -1,6 +1,18 @@
 import { Inject, Injectable } from '@nestjs/common';
 import type { Knex } from 'knex';
-import { matchLines, payoutBreakdown, type MatchableLine } from '@loambook/common';
+import {
+  matchLines,
+  payoutBreakdown,
+  type BankAccount,
+  type CreateMatchRequest,
+  type LockBlockers,
+  type MatchableLine,
+  type MatchView,
+  type PayoutBreakdownView,
+  type ReconciledPeriod,
+  type ReconciliationView,
+  type SuggestResult,
+} from '@loambook/common';
 import type { SessionUser } from '../auth/session-user';
 import { conflict, DomainError, invalid, notFound } from '../common/domain-error';
 import { KNEX } from '../database/database.module';
@@ -8,16 +20,6 @@ import { inTransaction, type Db } from '../database/transaction';
 import { BankStatementsService } from './bank-statements.service';
 import { isPgError, mayReconcile, translateError } from './reconciliation-access';
 import { ReconciliationRepository, type NewMatch } from './reconciliation.repository';
-import type {
-  BankAccount,
-  CreateMatchRequest,
-  LockBlockers,
-  MatchView,
-  PayoutBreakdownView,
-  ReconciledPeriod,
-  ReconciliationView,
-  SuggestResult,
-} from './reconciliation.wire';
 
 /** Days either side a bank line may be from its payout or commission payment (issue #5: 3 by default). */
 export const DEFAULT_WINDOW_DAYS = 3;

@@ -55,3 +55,4 @@ export {
   type StatementLineInput,
   type StatementOptions,
 } from './statement';
+export * from './api-types';

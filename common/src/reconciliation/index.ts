@@ -29,3 +29,4 @@ export {
   type MatchOptions,
 } from './match-lines';
 export { payoutBreakdown, type PayoutBreakdown, type PayoutTransaction } from './payout-breakdown';
+export * from './api-types';

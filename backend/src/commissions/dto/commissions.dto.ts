@@ -16,14 +16,15 @@ import {
   ValidateIf,
   ValidateNested,
 } from 'class-validator';
-import type { CommissionPlanBasis, CommissionRate } from '@loambook/common';
 import type {
+  CommissionPlanBasis,
   CommissionPlanInput,
   CommissionPlanPatch,
+  CommissionRate,
   CommissionStatementStatus,
   PayStatementInput,
   SetCommissionSplitsInput,
-} from '../commission-views';
+} from '@loambook/common';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 const DAY = /^\d{4}-\d{2}-\d{2}$/;

@@ -15,13 +15,13 @@ import {
   MinLength,
   ValidateIf,
 } from 'class-validator';
-import { MAX_MATCH_WINDOW_DAYS } from '@loambook/common';
-import type {
-  CreateBankAccountRequest,
-  CreateMatchRequest,
-  LockPeriodRequest,
-  MatchTargetKind,
-} from '../reconciliation.wire';
+import {
+  MAX_MATCH_WINDOW_DAYS,
+  type CreateBankAccountRequest,
+  type CreateMatchRequest,
+  type LockPeriodRequest,
+  type MatchTargetKind,
+} from '@loambook/common';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 const DAY = /^\d{4}-\d{2}-\d{2}$/;

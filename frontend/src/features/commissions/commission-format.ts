@@ -4,10 +4,10 @@ import {
   type CommissionMilestone,
   type CommissionPlanBasis,
   type CommissionRate,
+  type CommissionStatementStatus,
   type CommissionTierMeasure,
   type CommissionTierMode,
 } from '@loambook/common';
-import type { CommissionStatementStatus } from './api/types';
 
 export const BASIS_LABELS: Record<CommissionPlanBasis, string> = {
   net_price: 'Net contract price',

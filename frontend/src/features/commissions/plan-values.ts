@@ -1,11 +1,12 @@
 import {
   validateCommissionPlan,
   type CommissionPlanBasis,
+  type CommissionPlanInput,
+  type CommissionPlanView,
   type CommissionRate,
   type CommissionTierMeasure,
   type CommissionTierMode,
 } from '@loambook/common';
-import type { CommissionPlanInput, CommissionPlanView } from './api/types';
 
 export interface TierValues {
   from: string;

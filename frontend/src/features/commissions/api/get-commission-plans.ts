@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { CommissionPlanView } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { CommissionPlanView } from './types';
 
 export function getCommissionPlans(signal?: AbortSignal): Promise<CommissionPlanView[]> {
   return api.get<CommissionPlanView[]>('/commission-plans', { signal });

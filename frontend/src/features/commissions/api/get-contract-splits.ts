@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { ContractCommissionSplitsView } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { ContractCommissionSplitsView } from './types';
 
 export function getContractSplits(
   contractId: string,

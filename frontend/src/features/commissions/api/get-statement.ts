@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { CommissionStatementDetail } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { CommissionStatementDetail } from './types';
 
 export function getStatement(id: string, signal?: AbortSignal): Promise<CommissionStatementDetail> {
   return api.get<CommissionStatementDetail>(`/commission-statements/${encodeURIComponent(id)}`, { signal });

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { CommissionStatementStatus, CommissionStatementSummary } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { CommissionStatementStatus, CommissionStatementSummary } from './types';
 
 export interface StatementsFilter {
   /** null: every branch the person may see. */

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { CommissionPlanInput, CommissionPlanPatch, CommissionPlanView } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { CommissionPlanInput, CommissionPlanPatch, CommissionPlanView } from './types';
 
 export function createCommissionPlan(input: CommissionPlanInput): Promise<CommissionPlanView> {
   return api.post<CommissionPlanView>('/commission-plans', input);

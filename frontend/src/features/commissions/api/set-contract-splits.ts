@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { ContractCommissionSplitsView, SetCommissionSplitsInput } from '@loambook/common';
 import { apiRequest } from '@/lib/api-client';
-import type { ContractCommissionSplitsView, SetCommissionSplitsInput } from './types';
 
 export function setContractSplits(
   contractId: string,

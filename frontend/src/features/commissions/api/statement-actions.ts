@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api, apiRequest } from '@/lib/api-client';
 import type {
   BuildStatementsResult,
   CommissionStatementDetail,
   EarningRunResult,
   PayStatementInput,
-} from './types';
+} from '@loambook/common';
+import { api, apiRequest } from '@/lib/api-client';
 
 export function approveStatement(id: string): Promise<CommissionStatementDetail> {
   return api.post<CommissionStatementDetail>(`/commission-statements/${encodeURIComponent(id)}/approve`, {});

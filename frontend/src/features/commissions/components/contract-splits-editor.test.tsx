@@ -1,10 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { screen, waitFor, within } from '@testing-library/react';
 import userEventBase from '@testing-library/user-event';
-import type { Role } from '@loambook/common';
+import type { ContractCommissionSplitsView, Role } from '@loambook/common';
 import { fakeApi } from '@/testing/fake-api';
 import { makeUser, renderApp, signInAs } from '@/testing/render';
-import type { ContractCommissionSplitsView } from '../api/types';
 import { CONTRACT_ID, LEAD_ID, makeSplitsView, OTHER_SELLER_ID, SELLER_ID } from '../testing/fixtures';
 import { ContractSplitsEditor, LeadCommissionSplits } from './contract-splits-editor';
 

@@ -5,7 +5,7 @@ import { Button } from 'primereact/button';
 import { Card } from 'primereact/card';
 import { InputText } from 'primereact/inputtext';
 import { Message } from 'primereact/message';
-import { asSubject, formatUsd, validateSplits } from '@loambook/common';
+import { asSubject, formatUsd, validateSplits, type ContractCommissionSplitsView } from '@loambook/common';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { TableSkeleton } from '@/components/loading';
 import { useNotify } from '@/components/notify';
@@ -15,7 +15,6 @@ import { useAppAbility } from '@/features/auth/ability';
 import { useLeadContract } from '@/features/proposals/api/get-lead-contract';
 import { useContractSplits } from '../api/get-contract-splits';
 import { useSetContractSplits } from '../api/set-contract-splits';
-import type { ContractCommissionSplitsView } from '../api/types';
 import { MILESTONE_LABELS } from '../commission-format';
 
 const MAX_PEOPLE = 10;

@@ -1,10 +1,10 @@
 import { describe, expect, it, vi } from 'vitest';
 import { screen, waitFor, within } from '@testing-library/react';
 import userEventBase from '@testing-library/user-event';
+import type { CommissionPlanView } from '@loambook/common';
 import { errorBody, fakeApi } from '@/testing/fake-api';
 import { makeBranch, makeUser, renderApp, signInAs } from '@/testing/render';
 import { createCommissionPlan } from '../api/save-commission-plan';
-import type { CommissionPlanView } from '../api/types';
 import { makePlan } from '../testing/fixtures';
 import { PlanEditorDialog } from './plan-editor-dialog';
 

@@ -11,12 +11,13 @@ import {
   COMMISSION_TIER_MEASURES,
   COMMISSION_TIER_MODES,
   type Branch,
+  type CommissionPlanInput,
+  type CommissionPlanView,
 } from '@loambook/common';
 import { FormField } from '@/components/form-field';
 import { Select } from '@/components/select';
 import { isApiError } from '@/lib/api-client';
 import { useLastValue } from '@/lib/use-last-value';
-import type { CommissionPlanInput, CommissionPlanView } from '../api/types';
 import { BASIS_HINTS, BASIS_LABELS, MEASURE_LABELS, MODE_LABELS } from '../commission-format';
 import {
   EMPTY_PLAN,

@@ -4,11 +4,10 @@ import { Button } from 'primereact/button';
 import { ConfirmDialog } from 'primereact/confirmdialog';
 import { Dialog } from 'primereact/dialog';
 import { InputText } from 'primereact/inputtext';
-import { formatUsd, money } from '@loambook/common';
+import { formatUsd, money, type CommissionStatementDetail, type PayStatementInput } from '@loambook/common';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { FormField } from '@/components/form-field';
 import { serverFormErrors } from '@/lib/form-errors';
-import type { CommissionStatementDetail, PayStatementInput } from '../api/types';
 import { formatPeriod } from '../commission-format';
 
 const DAY = /^\d{4}-\d{2}-\d{2}$/;

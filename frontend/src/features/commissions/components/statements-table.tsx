@@ -2,11 +2,10 @@ import { Link } from 'react-router';
 import { Column } from 'primereact/column';
 import { DataTable } from 'primereact/datatable';
 import { Tag } from 'primereact/tag';
-import { formatUsd } from '@loambook/common';
+import { formatUsd, type CommissionStatementSummary } from '@loambook/common';
 import { paths } from '@/app/paths';
 import { tableLayout } from '@/components/table-layout';
 import { useMediaQuery, WIDE_TABLE } from '@/lib/use-media-query';
-import type { CommissionStatementSummary } from '../api/types';
 import { formatPeriod, STATUS_LABELS, STATUS_SEVERITY } from '../commission-format';
 
 const amount = (value: string) => formatUsd(value);

@@ -5,6 +5,7 @@ import { Card } from 'primereact/card';
 import { Column } from 'primereact/column';
 import { DataTable } from 'primereact/datatable';
 import { Tag } from 'primereact/tag';
+import type { CommissionPlanView } from '@loambook/common';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { EmptyState } from '@/components/empty-state';
 import { TableSkeleton } from '@/components/loading';
@@ -16,7 +17,6 @@ import { useAppAbility } from '@/features/auth/ability';
 import { useCurrentBranch } from '@/features/branches/current-branch';
 import { useCommissionPlans } from '../api/get-commission-plans';
 import { useSaveCommissionPlan } from '../api/save-commission-plan';
-import type { CommissionPlanView } from '../api/types';
 import { formatDay, rateSummary } from '../commission-format';
 import { PlanEditorDialog, type PlanEditorState } from '../components/plan-editor-dialog';
 

@@ -1,10 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { screen, waitFor, within } from '@testing-library/react';
 import userEventBase from '@testing-library/user-event';
-import type { Role } from '@loambook/common';
+import type { CommissionStatementDetail, Role } from '@loambook/common';
 import { fakeApi } from '@/testing/fake-api';
 import { BRANCH_IDS, makeUser, renderApp, signInAs } from '@/testing/render';
-import type { CommissionStatementDetail } from '../api/types';
 import { makeStatement, STATEMENT_ID } from '../testing/fixtures';
 import { StatementPage } from './commission-statement';
 import MyCommissionsRoute from './my-commissions';

@@ -4,7 +4,7 @@ import { Link, useParams } from 'react-router';
 import { Button } from 'primereact/button';
 import { Card } from 'primereact/card';
 import { Tag } from 'primereact/tag';
-import { asSubject, formatUsd } from '@loambook/common';
+import { asSubject, formatUsd, type CommissionStatementDetail } from '@loambook/common';
 import { paths } from '@/app/paths';
 import { NotFound } from '@/app/routes/not-found';
 import { ApiErrorMessage } from '@/components/api-error-message';
@@ -17,7 +17,6 @@ import { useAppAbility } from '@/features/auth/ability';
 import { useCurrentUser } from '@/features/auth/auth-provider';
 import { useStatement } from '../api/get-statement';
 import { useApproveStatement, usePayStatement } from '../api/statement-actions';
-import type { CommissionStatementDetail } from '../api/types';
 import {
   formatDay,
   formatPeriod,

@@ -6,7 +6,7 @@ import { Button } from 'primereact/button';
 import { Card } from 'primereact/card';
 import { Dialog } from 'primereact/dialog';
 import { InputText } from 'primereact/inputtext';
-import { formatUsd, payPeriodFor } from '@loambook/common';
+import { formatUsd, payPeriodFor, type CommissionStatementStatus } from '@loambook/common';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { EmptyState } from '@/components/empty-state';
 import { FormField } from '@/components/form-field';
@@ -18,7 +18,6 @@ import { useAppAbility } from '@/features/auth/ability';
 import { useCurrentBranch } from '@/features/branches/current-branch';
 import { useStatements } from '../api/get-statements';
 import { useBuildStatements, useRunEarningCheck } from '../api/statement-actions';
-import type { CommissionStatementStatus } from '../api/types';
 import { formatPeriod, STATUS_LABELS } from '../commission-format';
 import { StatementsTable } from '../components/statements-table';
 

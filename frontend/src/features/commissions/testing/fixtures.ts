@@ -1,9 +1,9 @@
-import { BRANCH_IDS } from '@/testing/render';
 import type {
   CommissionPlanView,
   CommissionStatementDetail,
   ContractCommissionSplitsView,
-} from '../api/types';
+} from '@loambook/common';
+import { BRANCH_IDS } from '@/testing/render';
 
 // Invented people and figures. The contract is the backend tests' default plan: net 5,420.00; at a flat 8 %
 // the commission is 433.60, half (216.80) at each milestone (backend/test/commissions.e2e-spec.ts).

@@ -1,5 +1,5 @@
+import type { MatchView } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { MatchView } from './types';
 import { useReconciliationMutation } from './use-reconciliation-mutation';
 
 export function confirmMatch(id: string): Promise<MatchView> {

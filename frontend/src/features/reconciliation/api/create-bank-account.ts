@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { BankAccount, CreateBankAccountRequest } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { BankAccount, CreateBankAccountRequest } from './types';
 
 export function createBankAccount(body: CreateBankAccountRequest): Promise<BankAccount> {
   return api.post<BankAccount>('/bank-accounts', body);

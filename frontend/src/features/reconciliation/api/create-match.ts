@@ -1,5 +1,5 @@
+import type { CreateMatchRequest, MatchView } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { CreateMatchRequest, MatchView } from './types';
 import { useReconciliationMutation } from './use-reconciliation-mutation';
 
 export function createMatch(body: CreateMatchRequest): Promise<MatchView> {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { BankAccount } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { BankAccount } from './types';
 
 export function getBankAccounts(signal?: AbortSignal): Promise<BankAccount[]> {
   return api.get<BankAccount[]>('/bank-accounts', { signal });

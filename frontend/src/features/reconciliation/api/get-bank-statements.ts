@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { BankStatement, BankStatementLine } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { BankStatement, BankStatementLine } from './types';
 
 export function getBankStatements(
   bankAccountId: string | null,

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { PayoutBreakdownView } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { PayoutBreakdownView } from './types';
 
 export function getPayoutBreakdown(payoutId: string, signal?: AbortSignal): Promise<PayoutBreakdownView> {
   return api.get<PayoutBreakdownView>(`/payouts/${encodeURIComponent(payoutId)}/breakdown`, { signal });

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { ReconciliationView } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { ReconciliationView } from './types';
 
 export interface ReconciliationQuery {
   bankAccountId: string;

@@ -1,5 +1,5 @@
+import type { LockPeriodRequest, ReconciledPeriod } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { LockPeriodRequest, ReconciledPeriod } from './types';
 import { useReconciliationMutation } from './use-reconciliation-mutation';
 
 export function lockPeriod(body: LockPeriodRequest): Promise<ReconciledPeriod> {

@@ -1,7 +1,6 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery } from '@tanstack/react-query';
-import type { BankCsvMapping } from '@loambook/common';
+import type { BankCsvMapping, BankStatementPreview } from '@loambook/common';
 import { postCsv, type UploadProgress } from './csv-transport';
-import type { BankStatementPreview } from './types';
 
 export interface PreviewInput {
   file: File;

@@ -1,6 +1,6 @@
+import type { SuggestResult } from '@loambook/common';
 import { api } from '@/lib/api-client';
 import type { ReconciliationQuery } from './get-reconciliation';
-import type { SuggestResult } from './types';
 import { useReconciliationMutation } from './use-reconciliation-mutation';
 
 export function suggestMatches(q: ReconciliationQuery & { windowDays: number }): Promise<SuggestResult> {

@@ -1,7 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { BankCsvMapping } from '@loambook/common';
+import type { BankCsvMapping, BankStatement } from '@loambook/common';
 import { postCsv, type UploadProgress } from './csv-transport';
-import type { BankStatement } from './types';
 
 export interface UploadInput {
   file: File;

@@ -4,11 +4,11 @@ import { Dialog } from 'primereact/dialog';
 import { InputTextarea } from 'primereact/inputtextarea';
 import { Message } from 'primereact/message';
 import { RadioButton } from 'primereact/radiobutton';
+import type { BankLineView, CommissionPaymentTarget, MatchTargetKind, PayoutTarget } from '@loambook/common';
 import { FormField } from '@/components/form-field';
 import { Select } from '@/components/select';
 import { serverFormErrors } from '@/lib/form-errors';
 import { useCreateMatch } from '../api/create-match';
-import type { BankLineView, CommissionPaymentTarget, MatchTargetKind, PayoutTarget } from '../api/types';
 import { formatAmount, formatDay } from '../reconciliation-format';
 
 interface ManualMatchDialogProps {

@@ -2,9 +2,9 @@ import { useState } from 'react';
 import { describe, expect, it } from 'vitest';
 import { render, screen, within } from '@testing-library/react';
 import userEventBase from '@testing-library/user-event';
+import type { BankStatementPreview } from '@loambook/common';
 import { draftFrom, EMPTY_DRAFT, mappingFrom, type MappingDraft, type MappingField } from '../mapping-draft';
 import { PREVIEW } from '../testing/fixtures';
-import type { BankStatementPreview } from '../api/types';
 import { MappingStep } from './mapping-step';
 
 const userEvent = userEventBase.setup({ pointerEventsCheck: 0 });

@@ -2,10 +2,9 @@ import { Checkbox } from 'primereact/checkbox';
 import { Message } from 'primereact/message';
 import { RadioButton } from 'primereact/radiobutton';
 import { Tag } from 'primereact/tag';
-import { BANK_DATE_FORMATS, type BankDateFormat } from '@loambook/common';
+import { BANK_DATE_FORMATS, type BankDateFormat, type BankStatementPreview } from '@loambook/common';
 import { FormField } from '@/components/form-field';
 import { Select } from '@/components/select';
-import type { BankStatementPreview } from '../api/types';
 import {
   columnLabel,
   columnLetter,

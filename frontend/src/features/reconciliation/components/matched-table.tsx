@@ -3,9 +3,9 @@ import { Button } from 'primereact/button';
 import { Column } from 'primereact/column';
 import { DataTable } from 'primereact/datatable';
 import { Tag } from 'primereact/tag';
+import type { MatchView } from '@loambook/common';
 import { paths } from '@/app/paths';
 import { EmptyState } from '@/components/empty-state';
-import type { MatchView } from '../api/types';
 import { formatAmount, formatDay, formatRange } from '../reconciliation-format';
 
 interface MatchedTableProps {

@@ -1,8 +1,8 @@
 import { Link } from 'react-router';
 import { Button } from 'primereact/button';
+import type { BankLineView, CommissionPaymentTarget, PayoutTarget } from '@loambook/common';
 import { paths } from '@/app/paths';
 import { EmptyState } from '@/components/empty-state';
-import type { BankLineView, CommissionPaymentTarget, PayoutTarget } from '../api/types';
 import { formatAmount, formatDay, formatRange } from '../reconciliation-format';
 
 interface UnmatchedListsProps {

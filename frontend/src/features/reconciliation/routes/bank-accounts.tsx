@@ -5,6 +5,7 @@ import { Button } from 'primereact/button';
 import { Card } from 'primereact/card';
 import { Column } from 'primereact/column';
 import { DataTable } from 'primereact/datatable';
+import type { BankAccount, BankStatement } from '@loambook/common';
 import { paths } from '@/app/paths';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { EmptyState } from '@/components/empty-state';
@@ -15,7 +16,6 @@ import { useBranches } from '@/features/branches/api/get-branches';
 import { formatDateTime } from '@/lib/format';
 import { useBankAccounts } from '../api/get-bank-accounts';
 import { useBankStatements } from '../api/get-bank-statements';
-import type { BankAccount, BankStatement } from '../api/types';
 import { NewBankAccountDialog } from '../components/new-bank-account-dialog';
 import { accountLabel, formatAmount, formatDay, formatRange, monthOf } from '../reconciliation-format';
 

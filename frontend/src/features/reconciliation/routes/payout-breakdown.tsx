@@ -6,12 +6,12 @@ import { Column } from 'primereact/column';
 import { DataTable } from 'primereact/datatable';
 import { Message } from 'primereact/message';
 import { Tag } from 'primereact/tag';
+import type { PayoutItemView } from '@loambook/common';
 import { paths } from '@/app/paths';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { PageLoading } from '@/components/loading';
 import { PageHeader } from '@/components/page-header';
 import { usePayoutBreakdown } from '../api/get-payout-breakdown';
-import type { PayoutItemView } from '../api/types';
 import { formatAmount, formatDay, monthOf } from '../reconciliation-format';
 
 function ItemsTable({

@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { screen, waitFor, within } from '@testing-library/react';
 import userEventBase from '@testing-library/user-event';
+import type { ReconciliationView } from '@loambook/common';
 import { fakeApi, type FakeRequest } from '@/testing/fake-api';
 import { makeUser, renderApp, signInAs } from '@/testing/render';
 import { ACCOUNT, match, reconciliationView } from '../testing/fixtures';
-import type { ReconciliationView } from '../api/types';
 import ReconciliationRoute from './reconciliation';
 
 const userEvent = userEventBase.setup({ pointerEventsCheck: 0 });

@@ -1,9 +1,9 @@
 import { describe, expect, it, vi } from 'vitest';
 import { screen, waitFor, within } from '@testing-library/react';
 import userEventBase from '@testing-library/user-event';
+import type { BankStatement, BankStatementPreview } from '@loambook/common';
 import { fakeApi } from '@/testing/fake-api';
 import { makeUser, renderApp, signInAs } from '@/testing/render';
-import type { BankStatement, BankStatementPreview } from '../api/types';
 import { ACCOUNT, PREVIEW } from '../testing/fixtures';
 import UploadStatementRoute from './upload-statement';
 

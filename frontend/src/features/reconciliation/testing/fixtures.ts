@@ -6,7 +6,7 @@ import type {
   MatchView,
   PayoutTarget,
   ReconciliationView,
-} from '../api/types';
+} from '@loambook/common';
 
 // Invented figures for the screens' tests: an operating account's November.
 export const ACCOUNT: BankAccount = {

@@ -1,14 +1,9 @@
 // The reconciliation API's request and response shapes. Amounts are strings ("1234.50", signed on bank
 // lines: positive = into the account); cents are strings of digits ("-1200"); dates are 'YYYY-MM-DD'.
 //
-// A copy of backend/src/reconciliation/reconciliation.wire.ts: the two must agree (they belong in
-// common/src/reconciliation/api-types.ts once the lead moves them there).
-import type {
-  BankCsvMapping,
-  BankCsvMappingSuggestion,
-  BankCsvRowError,
-  PayoutBreakdown,
-} from '@loambook/common';
+// The backend answers with these and the screens read them.
+import type { BankCsvMapping, BankCsvMappingSuggestion, BankCsvRowError } from './bank-csv';
+import type { PayoutBreakdown } from './payout-breakdown';
 
 export interface BankAccount {
   id: string;

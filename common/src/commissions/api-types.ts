@@ -1,12 +1,8 @@
-// The commission routes' wire shapes, as the API answers them (backend/src/commissions/commission-views.ts
-// keeps the same). Money and percentages are decimal strings ("1234.50", "33.34"), dates YYYY-MM-DD.
-import type {
-  CommissionBreakdown,
-  CommissionLineKind,
-  CommissionMilestone,
-  CommissionPlanBasis,
-  CommissionRate,
-} from '@loambook/common';
+// What the commission routes answer and accept, over JSON; the backend answers with these and the screens
+// read them. Money and percentages are decimal strings ("1234.50", "33.34"), dates 'YYYY-MM-DD', instants
+// ISO-8601.
+import type { CommissionLineKind } from './earning';
+import type { CommissionBreakdown, CommissionMilestone, CommissionPlanBasis, CommissionRate } from './plan';
 
 export interface CommissionPlanView {
   id: string;
