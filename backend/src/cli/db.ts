@@ -9,6 +9,7 @@ import { migrateLatest } from '../database/migrate';
 import { seed } from '../../../seeds/01-demo-company';
 import { seed as seedPriceBook } from '../../../seeds/02-demo-price-book';
 import { seed as seedCrews } from '../../../seeds/03-demo-crews';
+import { seed as seedScenario } from '../../../seeds/04-demo-scenario';
 
 async function main(args: string[]): Promise<void> {
   const config = loadConfig();
@@ -22,6 +23,7 @@ async function main(args: string[]): Promise<void> {
       await seed(db);
       await seedPriceBook(db);
       await seedCrews(db);
+      await seedScenario(db);
       console.log('Demo company is in place.');
     }
   } finally {
