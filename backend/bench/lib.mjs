@@ -9,12 +9,14 @@ import { dropDatabase, ensureDatabase, startPostgres, connection } from '../scri
 import { pg, REPO } from '../scripts/lib/env.mjs';
 
 const require = createRequire(import.meta.url);
-export const DIST = path.join(REPO, 'backend', 'dist', 'backend', 'src');
+// BENCH_DIST points at another build (e.g. a copy with an experiment in it) to compare two builds.
+export const DIST = process.env.BENCH_DIST ?? path.join(REPO, 'backend', 'dist', 'backend', 'src');
 export const here = path.dirname(fileURLToPath(import.meta.url));
 
-export async function freshDatabase(name) {
+/** A new, migrated database; with `reuse`, an existing one is kept (the caller checks its contents). */
+export async function freshDatabase(name, { reuse = false } = {}) {
   await startPostgres();
-  await dropDatabase(name);
+  if (!reuse) await dropDatabase(name);
   await ensureDatabase(name);
   const knex = require('knex')({ client: 'pg', connection: connection(name), pool: { min: 0, max: 20 } });
   const { migrateLatest } = require(path.join(DIST, 'database', 'migrate.js'));
@@ -32,9 +34,12 @@ export async function freePort() {
   });
 }
 
-export async function startServer(database, extraEnv = {}) {
+/** The compiled server as a child process; `cpus` (e.g. '1') pins it there with taskset. */
+export async function startServer(database, extraEnv = {}, { cpus } = {}) {
   const port = await freePort();
-  const child = spawn(process.execPath, [path.join(DIST, 'main.js')], {
+  const main = [process.execPath, path.join(DIST, 'main.js')];
+  const [cmd, ...args] = cpus ? ['taskset', '-c', cpus, ...main] : main;
+  const child = spawn(cmd, args, {
     env: {
       ...process.env,
       PGPORT: String(pg.port),

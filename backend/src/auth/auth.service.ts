@@ -32,10 +32,16 @@ const INVALID_CREDENTIALS = () =>
     'That e-mail and password do not match an active account.',
   );
 
+/** Enough for every signed-in person of a large contractor; past it the cache simply starts again. */
+const SESSION_CACHE_SIZE = 2000;
+
 const sha256 = (token: string) => createHash('sha256').update(token).digest('hex');
 
 @Injectable()
 export class AuthService {
+  /** Session users by everything they are built from; CASL abilities are not changed once built. */
+  private readonly sessions = new Map<string, SessionUser>();
+
   constructor(
     private readonly repo: AuthRepository,
     private readonly jwt: JwtService,
@@ -56,12 +62,27 @@ export class AuthService {
     return this.session(row);
   }
 
-  /** Called by the JWT strategy on every request: the token must still match an active account. */
+  /**
+   * Called by the JWT strategy on every request: the token must still match an active account, so the
+   * account is read every time (a deactivation or a new role applies to the very next request). What is
+   * built from the row — the session user and its CASL ability — is reused while the row says the same.
+   */
   async userForToken(payload: TokenPayload): Promise<SessionUser | null> {
     const row = await this.repo.findById(payload.sub);
     if (!row || !row.active || row.tokenVersion !== payload.tv) return null;
+    const key = `${row.id}|${row.tokenVersion}|${row.role}|${row.name}|${row.email}|${row.branchIds.join(',')}`;
+    const known = this.sessions.get(key);
+    if (known) return known;
     const user = toAuthUser(row);
-    return { ...user, ability: defineAbilityFor(user) };
+    // Shared by concurrent requests: frozen, so no handler can change another request's user.
+    const session: SessionUser = Object.freeze({
+      ...user,
+      branchIds: Object.freeze([...user.branchIds]) as string[],
+      ability: defineAbilityFor(user),
+    });
+    if (this.sessions.size >= SESSION_CACHE_SIZE) this.sessions.clear();
+    this.sessions.set(key, session);
+    return session;
   }
 
   me(user: SessionUser): MeResponse {

@@ -3,6 +3,7 @@ import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { Branch } from '@loambook/common';
 import { Can, CurrentUser } from '../common/decorators';
 import type { SessionUser } from '../auth/session-user';
+import type { BranchDirectoryEntry } from './branches.repository';
 import { BranchesService } from './branches.service';
 import { CreateBranchDto, UpdateBranchDto } from './dto/branch.dto';
 
@@ -16,6 +17,13 @@ export class BranchesController {
   @Can('read', 'Branch')
   list(@CurrentUser() user: SessionUser): Promise<Branch[]> {
     return this.branches.list(user);
+  }
+
+  // Declared before :id, which would otherwise take "directory" for an id.
+  @Get('directory')
+  @Can('read', 'Branch')
+  directory(): Promise<BranchDirectoryEntry[]> {
+    return this.branches.directory();
   }
 
   @Get(':id')

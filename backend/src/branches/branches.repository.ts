@@ -72,6 +72,9 @@ function toRow(b: Partial<BranchInput>): Record<string, unknown> {
   return Object.fromEntries(Object.entries(row).filter(([, v]) => v !== undefined));
 }
 
+/** A branch as other branches see it: enough to name it, nothing of its settings or people. */
+export type BranchDirectoryEntry = Pick<Branch, 'id' | 'code' | 'name'>;
+
 @Injectable()
 export class BranchesRepository {
   constructor(@Inject(KNEX) private readonly knex: Knex) {}
@@ -88,6 +91,11 @@ export class BranchesRepository {
     const q = this.base(db).orderBy('b.name');
     if (scope) q.whereIn('b.id', scope);
     return (await q).map(toBranch);
+  }
+
+  /** Every branch's id, code and name, by code: what a transfer needs to name its target. */
+  async directory(db: Db = this.knex): Promise<BranchDirectoryEntry[]> {
+    return db('branches').select('id', 'code', 'name').orderBy('code');
   }
 
   async findById(id: string, db: Db = this.knex): Promise<Branch | undefined> {

@@ -13,7 +13,7 @@ import { KNEX } from '../database/database.module';
 import { inTransaction } from '../database/transaction';
 import { conflict, DomainError, invalid, notFound } from '../common/domain-error';
 import type { SessionUser } from '../auth/session-user';
-import { BranchesRepository } from './branches.repository';
+import { BranchesRepository, type BranchDirectoryEntry } from './branches.repository';
 
 @Injectable()
 export class BranchesService {
@@ -25,6 +25,14 @@ export class BranchesService {
   list(user: SessionUser): Promise<Branch[]> {
     // The bookkeeper works across branches, like the owner; everyone else sees their own.
     return this.repo.list(branchScope(user, 'sales'));
+  }
+
+  /**
+   * Every branch, named only (id, code, name), for any signed-in person: a manager transferring a lead
+   * must see where it can go, though the branches' settings stay behind GET /branches/:id.
+   */
+  directory(): Promise<BranchDirectoryEntry[]> {
+    return this.repo.directory();
   }
 
   async get(user: SessionUser, id: string): Promise<Branch> {

@@ -1,10 +1,22 @@
-import { Body, Controller, Get, HttpCode, Param, Post, Req, Res, StreamableFile } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  Param,
+  Post,
+  Req,
+  Res,
+  StreamableFile,
+  UseGuards,
+} from '@nestjs/common';
 import { ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { CancelSigningResponse, SigningView } from '@loambook/common';
 import { Public } from '../common/decorators';
 import { CancelSigningDto, SignContractDto } from './dto/signing.dto';
 import { SigningService, type SigningEvidence } from './signing.service';
+import { SigningThrottlerGuard } from './signing-throttle';
 
 /** What the request tells about the signer's device (req.ip honours trust proxy 'loopback'). */
 export function evidenceOf(req: Request): SigningEvidence {
@@ -28,8 +40,10 @@ export function pdfFile(res: Response, file: { pdf: Buffer; filename: string }):
 /**
  * The homeowner's signing page. Public on purpose: the homeowner has no account; the unguessable link
  * (256 random bits, expiring, only its hash stored) is the credential. Listed in the routes test.
+ * Rate limited per address and route (SigningThrottlerGuard): 429 past the limit.
  */
 @ApiTags('signing')
+@UseGuards(SigningThrottlerGuard)
 @Controller('signing')
 export class SigningController {
   constructor(private readonly signing: SigningService) {}

@@ -2,16 +2,8 @@ import { useState } from 'react';
 import type { FormEvent } from 'react';
 import { Button } from 'primereact/button';
 import { Dialog } from 'primereact/dialog';
-import { InputText } from 'primereact/inputtext';
 import { Message } from 'primereact/message';
-import {
-  INSPECTION_DEFAULT_DURATION_MINUTES,
-  INSPECTION_MAX_DURATION_MINUTES,
-  INSPECTION_MIN_DURATION_MINUTES,
-  utcToZonedLocal,
-  zonedLocalToUtc,
-  type Inspection,
-} from '@loambook/common';
+import { INSPECTION_DEFAULT_DURATION_MINUTES, utcToZonedLocal, type Inspection } from '@loambook/common';
 import { FormField } from '@/components/form-field';
 import { Select } from '@/components/select';
 import { serverFormErrors, type FieldErrors } from '@/lib/form-errors';
@@ -19,9 +11,9 @@ import { useCurrentUser } from '@/features/auth/auth-provider';
 import { useBranches } from '@/features/branches/api/get-branches';
 import { useUsers } from '@/features/users/api/get-users';
 import { useBookInspection } from '../api/book-inspection';
-import { zoneLabel } from '../inspection-format';
+import { useVisitTime, VisitTimeFields, type VisitTimeField } from './visit-time-fields';
 
-type Field = 'date' | 'time' | 'durationMinutes' | 'inspectorId';
+type Field = VisitTimeField | 'inspectorId';
 const DEFAULT_INSPECTOR = '__default__';
 const INSPECTOR_ROLES = ['salesperson', 'branch_manager', 'owner'];
 
@@ -77,31 +69,16 @@ function BookForm({ onClose, onBooked, leadId, branchId, homeownerName }: BookIn
     : [];
 
   const book = useBookInspection();
-  const [date, setDate] = useState(() => tomorrowIn(timezone));
-  const [time, setTime] = useState('09:00');
-  const [duration, setDuration] = useState(String(INSPECTION_DEFAULT_DURATION_MINUTES));
+  const visit = useVisitTime(
+    { date: tomorrowIn(timezone), time: '09:00', durationMinutes: INSPECTION_DEFAULT_DURATION_MINUTES },
+    timezone,
+  );
   const [inspectorId, setInspectorId] = useState(DEFAULT_INSPECTOR);
   const [submitted, setSubmitted] = useState(false);
   const [serverFields, setServerFields] = useState<FieldErrors<Field>>({});
   const [formMessage, setFormMessage] = useState<string | null>(null);
 
-  const local = `${date}T${time}`;
-  const clientErrors: FieldErrors<Field> = {};
-  if (!/^\d{4}-\d{2}-\d{2}$/.test(date)) clientErrors.date = 'Choose the day of the visit.';
-  if (!/^\d{2}:\d{2}$/.test(time)) clientErrors.time = 'Enter the time the visit starts.';
-  else if (!clientErrors.date && timezone) {
-    // The server says the same; saying it here saves a round trip (a time skipped by the spring change).
-    const check = zonedLocalToUtc(local, timezone);
-    if (!check.ok && check.reason === 'nonexistent') clientErrors.time = check.message;
-  }
-  const mins = Number(duration);
-  if (
-    !/^\d{1,3}$/.test(duration.trim()) ||
-    mins < INSPECTION_MIN_DURATION_MINUTES ||
-    mins > INSPECTION_MAX_DURATION_MINUTES
-  ) {
-    clientErrors.durationMinutes = `Enter a duration from ${INSPECTION_MIN_DURATION_MINUTES} to ${INSPECTION_MAX_DURATION_MINUTES} minutes.`;
-  }
+  const clientErrors: FieldErrors<Field> = visit.errors;
   const errorFor = (f: Field) => serverFields[f] ?? (submitted ? clientErrors[f] : undefined);
   const clearServer = (f: Field) => setServerFields((s) => (s[f] ? { ...s, [f]: undefined } : s));
 
@@ -114,8 +91,8 @@ function BookForm({ onClose, onBooked, leadId, branchId, homeownerName }: BookIn
       const inspection = await book.mutateAsync({
         leadId,
         request: {
-          scheduledAt: local,
-          durationMinutes: mins,
+          scheduledAt: visit.local,
+          durationMinutes: visit.durationMinutes,
           ...(inspectorId !== DEFAULT_INSPECTOR ? { inspectorId } : {}),
         },
       });
@@ -132,8 +109,6 @@ function BookForm({ onClose, onBooked, leadId, branchId, homeownerName }: BookIn
     }
   };
 
-  const zone = timezone ? zoneLabel(timezone) : null;
-
   return (
     <form className="dialog-form" onSubmit={submit} noValidate>
       <p className="dialog-intro">
@@ -141,74 +116,13 @@ function BookForm({ onClose, onBooked, leadId, branchId, homeownerName }: BookIn
         {branch ? ` (branch ${branch.code})` : ''}, whatever your own device’s zone.
       </p>
       {formMessage ? <Message severity="error" text={formMessage} className="form-message" /> : null}
-      <div className="form-grid form-grid--pair">
-        <FormField id="book-date" label="Date" error={errorFor('date')} required>
-          {({ invalid, ...control }) => (
-            <InputText
-              {...control}
-              type="date"
-              value={date}
-              onChange={(e) => {
-                setDate(e.target.value);
-                clearServer('time');
-              }}
-              invalid={invalid}
-              className="w-full"
-            />
-          )}
-        </FormField>
-        <FormField
-          id="book-time"
-          label="Time"
-          error={errorFor('time')}
-          required
-          hint={
-            zone ? (
-              <span className="zone-hint">
-                {zone} · {timezone}
-              </span>
-            ) : (
-              'The branch’s time zone'
-            )
-          }
-        >
-          {({ invalid, ...control }) => (
-            <InputText
-              {...control}
-              type="time"
-              step={300}
-              value={time}
-              onChange={(e) => {
-                setTime(e.target.value);
-                clearServer('time');
-              }}
-              invalid={invalid}
-              className="w-full"
-            />
-          )}
-        </FormField>
-      </div>
-      <FormField
-        id="book-duration"
-        label="Duration (minutes)"
-        error={errorFor('durationMinutes')}
-        hint="A full visit with a survey usually takes 60 to 120 minutes."
-      >
-        {({ invalid, ...control }) => (
-          <InputText
-            {...control}
-            value={duration}
-            onChange={(e) => {
-              setDuration(e.target.value);
-              clearServer('durationMinutes');
-            }}
-            inputMode="numeric"
-            maxLength={3}
-            invalid={invalid}
-            className="duration-input"
-          />
-        )}
-      </FormField>
+      <VisitTimeFields
+        idPrefix="book"
+        visit={visit}
+        timezone={timezone}
+        errorFor={errorFor}
+        onEdit={clearServer}
+      />
       {choosesInspector ? (
         <FormField
           id="book-inspector"

@@ -608,6 +608,40 @@ function Observed({
   );
 }
 
+/** A labelled choice from a short list ('' is "not answered yet"). */
+function ChoiceField<T extends string>({
+  id,
+  label,
+  value,
+  options,
+  onChange,
+  disabled,
+}: {
+  id: string;
+  label: string;
+  value: T | '';
+  options: { label: string; value: T }[];
+  onChange: (value: T) => void;
+  disabled: boolean;
+}) {
+  return (
+    <div className="form-field">
+      <label htmlFor={id} className="form-field__label">
+        {label}
+      </label>
+      <Select
+        inputId={id}
+        value={value || null}
+        options={options}
+        onChange={(e) => onChange(e.value as T)}
+        placeholder="Choose"
+        disabled={disabled}
+        className="w-full"
+      />
+    </div>
+  );
+}
+
 function Drainage({
   draft,
   onChange,
@@ -624,34 +658,22 @@ function Drainage({
     onChange((all) => ({ ...all, drainage: { ...all.drainage, ...patch } }));
   return (
     <div className="entry__grid">
-      <div className="form-field">
-        <label htmlFor="f-drainage-gutters" className="form-field__label">
-          Gutters
-        </label>
-        <Select
-          inputId="f-drainage-gutters"
-          value={d.gutters || null}
-          options={GUTTER_OPTIONS}
-          onChange={(e) => set({ gutters: e.value as FindingsDraft['drainage']['gutters'] })}
-          placeholder="Choose"
-          disabled={disabled}
-          className="w-full"
-        />
-      </div>
-      <div className="form-field">
-        <label htmlFor="f-drainage-grading" className="form-field__label">
-          Grading
-        </label>
-        <Select
-          inputId="f-drainage-grading"
-          value={d.grading || null}
-          options={GRADING_OPTIONS}
-          onChange={(e) => set({ grading: e.value as FindingsDraft['drainage']['grading'] })}
-          placeholder="Choose"
-          disabled={disabled}
-          className="w-full"
-        />
-      </div>
+      <ChoiceField
+        id="f-drainage-gutters"
+        label="Gutters"
+        value={d.gutters}
+        options={GUTTER_OPTIONS}
+        onChange={(gutters) => set({ gutters })}
+        disabled={disabled}
+      />
+      <ChoiceField
+        id="f-drainage-grading"
+        label="Grading"
+        value={d.grading}
+        options={GRADING_OPTIONS}
+        onChange={(grading) => set({ grading })}
+        disabled={disabled}
+      />
       <div className="form-field entry__wide">
         <span id="f-drainage-downspouts" className="form-field__label">
           Downspouts discharge near the foundation
@@ -694,34 +716,22 @@ function Soil({
     onChange((all) => ({ ...all, soil: { ...all.soil, ...patch } }));
   return (
     <div className="entry__grid">
-      <div className="form-field">
-        <label htmlFor="f-soil-type" className="form-field__label">
-          Soil type
-        </label>
-        <Select
-          inputId="f-soil-type"
-          value={s.type || null}
-          options={SOIL_OPTIONS}
-          onChange={(e) => set({ type: e.value as FindingsDraft['soil']['type'] })}
-          placeholder="Choose"
-          disabled={disabled}
-          className="w-full"
-        />
-      </div>
-      <div className="form-field">
-        <label htmlFor="f-soil-moisture" className="form-field__label">
-          Moisture
-        </label>
-        <Select
-          inputId="f-soil-moisture"
-          value={s.moisture || null}
-          options={MOISTURE_OPTIONS}
-          onChange={(e) => set({ moisture: e.value as FindingsDraft['soil']['moisture'] })}
-          placeholder="Choose"
-          disabled={disabled}
-          className="w-full"
-        />
-      </div>
+      <ChoiceField
+        id="f-soil-type"
+        label="Soil type"
+        value={s.type}
+        options={SOIL_OPTIONS}
+        onChange={(type) => set({ type })}
+        disabled={disabled}
+      />
+      <ChoiceField
+        id="f-soil-moisture"
+        label="Moisture"
+        value={s.moisture}
+        options={MOISTURE_OPTIONS}
+        onChange={(moisture) => set({ moisture })}
+        disabled={disabled}
+      />
       <div className="entry__wide">
         <NoteField
           path="soil.note"

@@ -13,8 +13,11 @@ import { useNotify } from '@/components/notify';
 import { isApiError } from '@/lib/api-client';
 import { formatRecent } from '@/lib/format';
 import { useLastValue } from '@/lib/use-last-value';
+import { serverFormErrors } from '@/lib/form-errors';
+import { FormField } from '@/components/form-field';
 import { useDeletePhoto } from '../api/delete-photo';
 import { usePhotoBlob, usePhotos } from '../api/get-photos';
+import { useUpdatePhotoCaption } from '../api/update-photo-caption';
 import { useUploadPhoto } from '../api/upload-photo';
 
 const MB = PHOTO_MAX_BYTES / (1024 * 1024);
@@ -45,14 +48,17 @@ interface PhotosSectionProps {
   /** Uploads while the inspection is not cancelled; deletes only while it is booked. */
   canUpload: boolean;
   canDelete: boolean;
+  /** Captions can be corrected whenever the person may change the inspection, completed ones too. */
+  canEditCaption: boolean;
 }
 
-export function PhotosSection({ inspectionId, canUpload, canDelete }: PhotosSectionProps) {
+export function PhotosSection({ inspectionId, canUpload, canDelete, canEditCaption }: PhotosSectionProps) {
   const photos = usePhotos(inspectionId);
   const notify = useNotify();
   const remove = useDeletePhoto();
   const [viewing, setViewing] = useState<InspectionPhoto | null>(null);
   const [deleting, setDeleting] = useState<InspectionPhoto | null>(null);
+  const [captioning, setCaptioning] = useState<InspectionPhoto | null>(null);
   const shownDeleting = useLastValue(deleting);
 
   return (
@@ -90,6 +96,17 @@ export function PhotosSection({ inspectionId, canUpload, canDelete }: PhotosSect
                   {p.uploadedBy.name} · {formatRecent(p.createdAt)}
                 </p>
               </div>
+              {canEditCaption ? (
+                <Button
+                  type="button"
+                  icon="pi pi-pencil"
+                  aria-label={`Edit caption of photo ${i + 1}${p.caption ? `: ${p.caption}` : ''}`}
+                  text
+                  rounded
+                  className="photo-card__edit"
+                  onClick={() => setCaptioning(p)}
+                />
+              ) : null}
               {canDelete ? (
                 <Button
                   type="button"
@@ -108,6 +125,7 @@ export function PhotosSection({ inspectionId, canUpload, canDelete }: PhotosSect
         </ul>
       )}
       <PhotoDialog photo={viewing} onClose={() => setViewing(null)} />
+      <CaptionDialog photo={captioning} onClose={() => setCaptioning(null)} />
       <ConfirmDialog
         visible={deleting !== null}
         onHide={() => setDeleting(null)}
@@ -203,6 +221,77 @@ function PhotoDialog({ photo, onClose }: { photo: InspectionPhoto | null; onClos
         </p>
       ) : null}
     </Dialog>
+  );
+}
+
+/** Corrects or removes a photo's caption (an empty caption removes it). */
+function CaptionDialog({ photo, onClose }: { photo: InspectionPhoto | null; onClose: () => void }) {
+  return (
+    <Dialog
+      visible={photo !== null}
+      onHide={onClose}
+      header="Edit caption"
+      className="app-dialog"
+      style={{ width: '30rem' }}
+      breakpoints={{ '640px': 'calc(100vw - 1.5rem)' }}
+      draggable={false}
+      resizable={false}
+    >
+      {photo ? <CaptionForm key={photo.id} photo={photo} onClose={onClose} /> : null}
+    </Dialog>
+  );
+}
+
+function CaptionForm({ photo, onClose }: { photo: InspectionPhoto; onClose: () => void }) {
+  const notify = useNotify();
+  const update = useUpdatePhotoCaption();
+  const [caption, setCaption] = useState(photo.caption ?? '');
+  const [error, setError] = useState<string | null>(null);
+  const [formError, setFormError] = useState<unknown>(null);
+
+  const submit = async (event: FormEvent) => {
+    event.preventDefault();
+    setFormError(null);
+    try {
+      const saved = await update.mutateAsync({ photo, caption: caption.trim() || null });
+      notify.success(saved.caption ? 'Caption saved' : 'Caption removed', saved.caption ?? undefined);
+      onClose();
+    } catch (e) {
+      const mapped = serverFormErrors(e, ['caption'] as const);
+      setError(mapped.fields.caption ?? null);
+      if (!mapped.fields.caption) setFormError(e);
+    }
+  };
+
+  return (
+    <form className="dialog-form" onSubmit={submit} noValidate>
+      <FormField
+        id="photo-caption-edit"
+        label="Caption"
+        error={error}
+        hint="What and where: the crack, the wall, a landmark. Leave empty to remove the caption."
+      >
+        {({ invalid, ...control }) => (
+          <InputText
+            {...control}
+            value={caption}
+            onChange={(e) => {
+              setCaption(e.target.value);
+              setError(null);
+            }}
+            invalid={invalid}
+            maxLength={PHOTO_CAPTION_MAX_LENGTH}
+            autoFocus
+            className="w-full"
+          />
+        )}
+      </FormField>
+      {formError ? <ApiErrorMessage error={formError} /> : null}
+      <div className="dialog-actions">
+        <Button type="button" label="Cancel" severity="secondary" outlined onClick={onClose} />
+        <Button type="submit" label="Save caption" icon="pi pi-check" loading={update.isPending} />
+      </div>
+    </form>
   );
 }
 

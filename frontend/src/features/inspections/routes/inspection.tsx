@@ -29,8 +29,10 @@ import { useCompleteInspection } from '../api/complete-inspection';
 import { useInspection } from '../api/get-inspection';
 import { useSurvey } from '../api/get-survey';
 import { useUpdateInspection } from '../api/update-inspection';
+import { CancelInspectionDialog } from '../components/cancel-inspection-dialog';
 import { FindingsChecklist } from '../components/findings-checklist';
 import { PhotosSection } from '../components/photos-section';
+import { RescheduleInspectionDialog } from '../components/reschedule-inspection-dialog';
 import { SurveySection } from '../components/survey-section';
 import {
   draftDiffers,
@@ -96,6 +98,7 @@ function InspectionPage({ inspection }: { inspection: Inspection }) {
   const [serverErrors, setServerErrors] = useState<DraftErrors>({});
   const [findingsMessage, setFindingsMessage] = useState<string | null>(null);
   const [confirming, setConfirming] = useState(false);
+  const [changing, setChanging] = useState<null | 'reschedule' | 'cancel'>(null);
   const [refusal, setRefusal] = useState<{ message: string; keys: FindingsItemKey[] } | null>(null);
 
   const clientErrors = validateDraft(draft);
@@ -187,8 +190,52 @@ function InspectionPage({ inspection }: { inspection: Inspection }) {
               </span>
             </p>
           </div>
+          {editable ? (
+            <div className="inspection-header__actions">
+              <Button
+                type="button"
+                label="Reschedule"
+                icon="pi pi-calendar"
+                outlined
+                onClick={() => setChanging('reschedule')}
+              />
+              <Button
+                type="button"
+                label="Cancel inspection"
+                icon="pi pi-calendar-times"
+                severity="danger"
+                outlined
+                onClick={() => setChanging('cancel')}
+              />
+            </div>
+          ) : null}
         </header>
       </Card>
+      {editable ? (
+        <>
+          <RescheduleInspectionDialog
+            inspection={inspection}
+            visible={changing === 'reschedule'}
+            onClose={() => setChanging(null)}
+            onDone={(i) => {
+              setChanging(null);
+              notify.success(
+                'Inspection rescheduled',
+                `${formatWallClock(i.scheduledLocal)}, ${zoneLabel(i.timezone, i.scheduledUtcOffset)}.`,
+              );
+            }}
+          />
+          <CancelInspectionDialog
+            inspection={inspection}
+            visible={changing === 'cancel'}
+            onClose={() => setChanging(null)}
+            onDone={() => {
+              setChanging(null);
+              notify.success('Inspection cancelled', 'It stays on the lead, marked cancelled.');
+            }}
+          />
+        </>
+      ) : null}
 
       {inspection.status === 'completed' ? (
         <Message
@@ -309,6 +356,7 @@ function InspectionPage({ inspection }: { inspection: Inspection }) {
             inspectionId={inspection.id}
             canUpload={mayUpdate && inspection.status !== 'cancelled'}
             canDelete={editable}
+            canEditCaption={mayUpdate}
           />
         </section>
       </Card>

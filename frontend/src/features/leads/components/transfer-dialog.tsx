@@ -4,17 +4,17 @@ import { Button } from 'primereact/button';
 import { Dialog } from 'primereact/dialog';
 import { InputTextarea } from 'primereact/inputtextarea';
 import { Message } from 'primereact/message';
-import type { Branch, LeadDetail } from '@loambook/common';
+import type { LeadDetail } from '@loambook/common';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { FormField } from '@/components/form-field';
 import { Select } from '@/components/select';
 import { isApiError } from '@/lib/api-client';
 import { serverFormErrors } from '@/lib/form-errors';
+import { useBranchDirectory } from '@/features/branches/api/get-branch-directory';
 import { useTransferLead } from '../api/transfer-lead';
 
 interface TransferDialogProps {
   lead: LeadDetail;
-  branches: Branch[];
   visible: boolean;
   onClose: () => void;
   onDone: (lead: LeadDetail) => void;
@@ -38,15 +38,17 @@ export function TransferDialog(props: TransferDialogProps) {
   );
 }
 
-function TransferForm({ lead, branches, onClose, onDone }: TransferDialogProps) {
+function TransferForm({ lead, onClose, onDone }: TransferDialogProps) {
   const transfer = useTransferLead();
+  // Every branch, not just the manager's own: a lead usually moves to a branch they do not work in.
+  const directory = useBranchDirectory();
   const [branchId, setBranchId] = useState<string | null>(null);
   const [note, setNote] = useState('');
   const [submitted, setSubmitted] = useState(false);
   const [serverErrors, setServerErrors] = useState<{ branchId?: string; note?: string }>({});
   const [refusal, setRefusal] = useState<unknown>(null);
 
-  const options = branches
+  const options = (directory.data ?? [])
     .filter((b) => b.id !== lead.branchId)
     .map((b) => ({ label: `${b.code} · ${b.name}`, value: b.id }));
   const branchError =
@@ -78,11 +80,12 @@ function TransferForm({ lead, branches, onClose, onDone }: TransferDialogProps) 
         {lead.branchCode} to the branch you choose. {lead.branchCode} keeps a read-only view of it.
       </p>
       {refusal ? <ApiErrorMessage error={refusal} /> : null}
-      {options.length === 0 ? (
+      {directory.isError ? <ApiErrorMessage error={directory.error} /> : null}
+      {directory.isSuccess && options.length === 0 ? (
         <Message
           severity="info"
           className="w-full"
-          text={`You work in ${lead.branchCode} only, so there is no other branch to choose here. An owner can transfer the lead to any branch.`}
+          text={`${lead.branchCode} is the company’s only branch, so there is nowhere to move this lead yet.`}
         />
       ) : null}
       <FormField id="transfer-branch" label="Move to branch" error={branchError} required>
@@ -97,7 +100,13 @@ function TransferForm({ lead, branches, onClose, onDone }: TransferDialogProps) 
               setServerErrors({});
             }}
             invalid={invalid}
-            placeholder={options.length ? 'Choose a branch' : 'No other branch you can choose'}
+            placeholder={
+              directory.isPending
+                ? 'Loading branches…'
+                : options.length
+                  ? 'Choose a branch'
+                  : 'No other branch to choose'
+            }
             disabled={options.length === 0}
             className="w-full"
           />
