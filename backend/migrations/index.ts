@@ -6,6 +6,7 @@ import * as signing from './20261202016000_signing';
 import * as jobs from './20261203000000_jobs';
 import * as jobsCore from './20261203010000_jobs_core';
 import * as fieldLog from './20261203020000_field_log';
+import * as jobPhotoClientId from './20261203030000_job_photo_client_id';
 import * as ledger from './20261203200000_ledger';
 import * as payments from './20261203300000_payments';
 import * as commissions from './20261203400000_commissions';
@@ -24,6 +25,7 @@ export const MIGRATIONS: ReadonlyArray<readonly [string, Knex.Migration]> = [
   ['20261203000000_jobs', jobs],
   ['20261203010000_jobs_core', jobsCore],
   ['20261203020000_field_log', fieldLog],
+  ['20261203030000_job_photo_client_id', jobPhotoClientId],
   ['20261203200000_ledger', ledger],
   ['20261203300000_payments', payments],
   ['20261203400000_commissions', commissions],

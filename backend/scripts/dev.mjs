@@ -1,7 +1,7 @@
 // npm run dev: the same services as npm start, then hot reload on both sides: tsc --watch + node --watch
 // for the API on :3000, Vite with its dev server on :5173 (proxying /api to the API).
 import { spawn } from 'node:child_process';
-import { app, log, pg, REPO } from './lib/env.mjs';
+import { app, log, pg, REPO, stripe } from './lib/env.mjs';
 import { ensureDatabase, startPostgres } from './lib/postgres.mjs';
 import { startFakes } from './lib/fakes.mjs';
 import { runVisible } from './lib/run.mjs';
@@ -15,6 +15,12 @@ const env = {
   PGDATABASE: pg.database,
   PORT: String(app.port),
   FRONTEND_DIST: '',
+  // The app's SDK talks to the local card-processor fake (scripts/lib/env.mjs `stripe.*`).
+  STRIPE_SECRET_KEY: stripe.secretKey,
+  STRIPE_WEBHOOK_SECRET: stripe.webhookSecret,
+  STRIPE_API_HOST: process.env.STRIPE_API_HOST ?? '127.0.0.1',
+  STRIPE_API_PORT: process.env.STRIPE_API_PORT ?? String(stripe.fakePort),
+  STRIPE_API_PROTOCOL: process.env.STRIPE_API_PROTOCOL ?? 'http',
 };
 for (const ws of ['common', 'backend']) {
   if ((await runVisible('npm', ['run', 'build', '-w', ws, '--silent'], { cwd: REPO })) !== 0) process.exit(1);

@@ -57,6 +57,8 @@ export async function createApp(config: AppConfig): Promise<NestExpressApplicati
     }),
   );
   app.use(assignRequestId);
+  // The processor's webhook is verified against the exact bytes it signed: keep that body raw (a Buffer).
+  app.use('/api/payments/webhook', express.raw({ type: '*/*', limit: '1mb' }), bodyParserErrors);
   app.use('/api', express.json({ limit: '1mb' }), bodyParserErrors);
   app.setGlobalPrefix('api');
   app.useGlobalPipes(createValidationPipe());

@@ -15,7 +15,13 @@ import { StorageModule } from './storage/storage.module';
 import { InspectionsModule } from './inspections/inspections.module';
 import { ProposalsModule } from './proposals/proposals.module';
 import { SigningModule } from './signing/signing.module';
+import { JobsModule } from './jobs/jobs.module';
+import { FieldModule } from './field/field.module';
 import { HealthController } from './health/health.controller';
+import { LedgerModule } from './ledger/ledger.module';
+import { PaymentsModule } from './payments/payments.module';
+import { ReconciliationModule } from './reconciliation/reconciliation.module';
+import { CommissionsModule } from './commissions/commissions.module';
 
 @Module({})
 export class AppModule {
@@ -52,6 +58,12 @@ export class AppModule {
         LeadsModule,
         ProposalsModule,
         SigningModule,
+        JobsModule,
+        FieldModule,
+        LedgerModule,
+        PaymentsModule,
+        ReconciliationModule,
+        CommissionsModule,
       ],
       controllers: [HealthController],
       providers: [

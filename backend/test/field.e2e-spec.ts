@@ -29,6 +29,8 @@ const BUCKET = 'loambook-field-test';
 // Monday 2026-07-20, 11:00 EDT: "today" in the branch is 2026-07-20.
 const TEST_NOW = '2026-07-20T15:00:00Z';
 const TODAY = '2026-07-20';
+/** A photo of job A sent with a client id before completion (its resend after completion still answers). */
+const JOB_A_PHOTO = randomUUID();
 
 function binary(res: Response, done: (err: Error | null, body: Buffer) => void) {
   const chunks: Buffer[] = [];
@@ -427,6 +429,63 @@ describe('the field log, completion, actuals and warranty', () => {
       expect((await as('seller').upload(`/api/jobs/${jobA.jobId}/photos`, png, 'p.png')).status).toBe(403);
       expect(await t.db('job_photos').where({ job_id: jobA.jobId })).toHaveLength(1);
     });
+
+    it('writes a photo once per client photo id: a resend answers 200 with the photo first stored', async () => {
+      const pile1 = await t.db('install_entries').where({ job_id: jobH.jobId, number: 1 }).first('id');
+      const clientPhotoId = randomUUID();
+      const url = `/api/jobs/${jobH.jobId}/photos`;
+      const first = await as('crewLead').upload(url, png, 'pile-1.png', {
+        caption: 'Pile 1 at torque',
+        installEntryId: pile1.id,
+        clientPhotoId,
+      });
+      expect(first.status, JSON.stringify(first.body)).toBe(201);
+      expect(first.body).toMatchObject({
+        clientPhotoId,
+        installEntryId: pile1.id,
+        caption: 'Pile 1 at torque',
+      });
+
+      // The answer was lost with the signal: the phone sends the same photo again, under the same id.
+      const resend = await as('crewLead').upload(url, png, 'pile-1.png', {
+        caption: 'Pile 1 at torque (again)',
+        installEntryId: pile1.id,
+        clientPhotoId,
+      });
+      expect(resend.status, JSON.stringify(resend.body)).toBe(200);
+      expect(resend.body.id).toBe(first.body.id);
+      expect(resend.body.caption).toBe('Pile 1 at torque');
+      expect(await t.db('job_photos').where({ client_photo_id: clientPhotoId })).toHaveLength(1);
+      const log = await as('crewLead').get(`/api/jobs/${jobH.jobId}/log`);
+      expect(log.body.photos.map((p: { id: string }) => p.id)).toEqual([first.body.id]);
+      expect(log.body.entries.find((e: { number: number }) => e.number === 1).photoCount).toBe(1);
+
+      // The same id on another job is the phone's mistake (409); an id that is no uuid is refused (400).
+      const elsewhere = await as('crewLead').upload(`/api/jobs/${jobA.jobId}/photos`, png, 'p.png', {
+        clientPhotoId,
+      });
+      expect(elsewhere.status).toBe(409);
+      expect(elsewhere.body.code).toBe('PHOTO.CLIENT_ID_OTHER_JOB');
+      const onA = await as('crewLead').upload(`/api/jobs/${jobA.jobId}/photos`, png, 'a.png', {
+        clientPhotoId: JOB_A_PHOTO,
+      });
+      expect(onA.status).toBe(201);
+      const notUuid = await as('crewLead').upload(url, png, 'p.png', { clientPhotoId: 'photo-1' });
+      expect(notUuid.status).toBe(400);
+      // Two sends at once: still one photo.
+      const racing = randomUUID();
+      const both = await Promise.all(
+        [1, 2].map(() => as('crewLead').upload(url, png, 'race.png', { clientPhotoId: racing })),
+      );
+      expect(both.map((r) => r.status).sort()).toEqual([200, 201]);
+      expect(both[0]!.body.id).toBe(both[1]!.body.id);
+      expect(await t.db('job_photos').where({ client_photo_id: racing })).toHaveLength(1);
+      // Without a client id every upload is a photo of its own (as before).
+      const plain = await as('crewLead').upload(url, png, 'plain.png');
+      expect(plain.status).toBe(201);
+      expect(plain.body.clientPhotoId).toBeNull();
+      expect(await t.db('job_photos').where({ job_id: jobH.jobId })).toHaveLength(3);
+    });
   });
 
   describe('who may see and write the log', () => {
@@ -582,6 +641,12 @@ describe('the field log, completion, actuals and warranty', () => {
       expect(more.body.code).toBe('JOB.ALREADY_COMPLETED');
       const photo = await as('crewLead').upload(`/api/jobs/${jobA.jobId}/photos`, png, 'late.png');
       expect(photo.status).toBe(409);
+      // A photo sent before completion, sent again (its answer lost): the stored one, not a refusal.
+      const photoAgain = await as('crewLead').upload(`/api/jobs/${jobA.jobId}/photos`, png, 'a.png', {
+        clientPhotoId: JOB_A_PHOTO,
+      });
+      expect(photoAgain.status).toBe(200);
+      expect(photoAgain.body.clientPhotoId).toBe(JOB_A_PHOTO);
       const again = await as('crewLead').post(`/api/jobs/${jobA.jobId}/complete`, completion());
       expect(again.status).toBe(409);
       expect(again.body.code).toBe('JOB.ALREADY_COMPLETED');

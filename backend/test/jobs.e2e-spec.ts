@@ -134,7 +134,8 @@ describe('field jobs: the job from the contract, crews, scheduling, permit and 8
         estimatedLabourHours: '16.00',
         labourCostPerHour: '55.00',
         planned: { injectionPoints: '12', pushPiers: '0', helicalPiles: '0', materialLb: '240' },
-        can: { schedule: true, editPermits: true, log: false, complete: false, seeCosts: true },
+        // Not on a crew yet: nothing to start.
+        can: { schedule: true, editPermits: true, start: false, log: false, complete: false, seeCosts: true },
       });
       expect(d.lastDayToCancel).toBe('2026-07-16');
       expect(d.number).toBe(`${code}-J2607-${d.number.slice(-3)}`);
@@ -367,6 +368,8 @@ describe('field jobs: the job from the contract, crews, scheduling, permit and 8
       const started = await as('leadB').post(`/api/jobs/${j.jobId}/start`);
       expect(started.status, JSON.stringify(started.body)).toBe(200);
       expect(started.body.startedAt).toBe('2026-07-13T14:00:00.000Z');
+      // Started: nothing more to start; the log opens.
+      expect(started.body.can).toMatchObject({ start: false, log: true });
       expect(await stage(j.leadId)).toBe('in_progress');
       const again = await as('leadB').post(`/api/jobs/${j.jobId}/start`);
       expect(again.body.code).toBe('JOB.ALREADY_STARTED');
@@ -612,7 +615,17 @@ describe('field jobs: the job from the contract, crews, scheduling, permit and 8
 
       const own = await as('leadA').get(`/api/jobs/${mine.jobId}`);
       expect(own.status).toBe(200);
-      expect(own.body.can).toMatchObject({ schedule: false, editPermits: false, seeCosts: false });
+      // Scheduled on their crew: the crew lead may start it (the office may not schedule through them).
+      expect(own.body.can).toMatchObject({
+        schedule: false,
+        editPermits: false,
+        start: true,
+        seeCosts: false,
+      });
+      // The list carries the plan's labour in person-hours (job-fixtures DEFAULT_PLAN: 16 h).
+      expect(list.body.items.find((x: { id: string }) => x.id === mine.jobId).estimatedLabourHours).toBe(
+        '16.00',
+      );
       expect(own.body.plan[0].unitCost).toBe('0.00');
       expect(own.body.labourCostPerHour).toBeNull();
       expect((await as('leadA').get(`/api/jobs/${theirs.jobId}`)).status).toBe(404);
@@ -647,9 +660,12 @@ describe('field jobs: the job from the contract, crews, scheduling, permit and 8
       expect(own.body.can).toMatchObject({
         schedule: false,
         editPermits: false,
+        start: false,
         log: false,
         complete: false,
       });
+      // The manager of the branch may start it too; leadB, whose crew it is not, does not see it at all.
+      expect((await as('manager').get(`/api/jobs/${mine.jobId}`)).body.can.start).toBe(true);
       expect(
         (await schedule('seller', mine.jobId, { crewId: crewA.id, startOn: '2026-07-20', durationDays: 1 }))
           .status,

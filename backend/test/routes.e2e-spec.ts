@@ -14,6 +14,10 @@ const PUBLIC_ROUTES = new Set([
   'GET /api/signing/{token}/pdf',
   'POST /api/signing/{token}/sign',
   'POST /api/signing/{token}/cancel',
+  // The card processor's webhook: the signature over the raw body is the credential (src/payments).
+  'POST /api/payments/webhook',
+  // The homeowner's page after paying asks whether the payment is in, by the checkout session id.
+  'GET /api/payments/checkout/{sessionId}',
 ]);
 
 describe('every route needs a token except the public ones', () => {

@@ -13,3 +13,6 @@ export * from './inspections';
 export * from './pricing';
 export * from './signing';
 export * from './jobs';
+export * from './ledger';
+export * from './commissions';
+export * from './reconciliation';

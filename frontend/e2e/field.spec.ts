@@ -170,14 +170,22 @@ describe('journey: a field job from the crew lead’s phone', () => {
     const point2 = log.entries.find((e) => e.number === 2)!;
     expect(log.photos.map((p) => p.installEntryId)).toContain(point2.id);
 
-    // The day's note: 20 labour hours.
+    // The day's note: 2 people for 10 hours on site, 20 person-hours.
     const note = page.getByRole('form', { name: 'Day note' });
-    await note.getByLabel('People on site').fill('3');
-    await note.getByLabel('Labour hours').fill('20');
+    await note.getByLabel('People on site').fill('2');
+    await note.getByLabel('Hours on site').fill('10');
+    await expect.poll(() => note.getByLabel('Person-hours').inputValue()).toBe('20');
     await note.getByLabel('What happened today').fill('South wall done; slab came up about an inch at C.');
     await note.getByRole('button', { name: 'Save day note' }).click();
     await expect.poll(() => page.getByText('Every row is sent').isVisible()).toBe(true);
-    await expect.poll(() => page.getByText(/20 h/).first().isVisible()).toBe(true);
+    await expect
+      .poll(() =>
+        page
+          .getByText(/20 person-hours/)
+          .first()
+          .isVisible(),
+      )
+      .toBe(true);
     await stack.shot(page, 'crew-day-note');
 
     // Completion with the homeowner.
@@ -237,7 +245,7 @@ describe('journey: a field job from the crew lead’s phone', () => {
     await mpage.getByRole('link', { name: job.number }).first().click();
     await mpage.waitForURL(new RegExp(`/jobs/${job.jobId}$`));
     // Hand-checked (support/field.ts PLAN): price 4340.00; actual cost 61 lb × 5.20 = 317.20, 4 points ×
-    // 18 = 72, 20 h × 65 = 1300, mobilisation 300 → 1989.20; margin 2350.80 / 4340 = 54.17 %.
+    // 18 = 72, 20 person-hours × 65 = 1300, mobilisation 300 → 1989.20; margin 2350.80 / 4340 = 54.17 %.
     const margin = mpage.getByTestId('actual-margin');
     await expect.poll(() => margin.isVisible()).toBe(true);
     expect(await margin.textContent()).toMatch(/^54\.(17|2)\d*%$/);

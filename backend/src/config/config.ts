@@ -28,12 +28,44 @@ export interface AppConfig {
   logLevel: string;
   /** Where the built screens are; served by the same process when present. */
   frontendDist: string | null;
+  /**
+   * The card processor (Stripe, through its SDK). No host: the real service. A host, port and protocol:
+   * a stand-in such as the local fake (backend/fakes/stripe). No secret key: payments are switched off.
+   */
+  stripe: {
+    secretKey: string | null;
+    webhookSecret: string | null;
+    apiHost: string | null;
+    apiPort: number | null;
+    apiProtocol: 'http' | 'https' | null;
+  };
+  /**
+   * The commission earning check, scheduled with pg-boss on the same PostgreSQL (schema pgboss).
+   * COMMISSIONS_SCHEDULER=off leaves it out (the ordinary API tests); COMMISSIONS_EARNING_CRON is when
+   * it runs (UTC, default every 15 minutes); COMMISSIONS_SCHEDULER_POLL_SECONDS is how often pg-boss looks
+   * for due schedules and jobs (1–45, default 30; the tests use 1).
+   */
+  commissions: { scheduler: boolean; earningCron: string; pollSeconds: number };
 }
 
 function int(value: string | undefined, fallback: number, name: string): number {
   if (value === undefined || value === '') return fallback;
   if (!/^\d+$/.test(value)) throw new Error(`${name} must be a whole number, got "${value}"`);
   return Number(value);
+}
+
+function protocol(value: string | undefined): 'http' | 'https' | null {
+  if (value === undefined || value === '') return null;
+  if (value !== 'http' && value !== 'https')
+    throw new Error(`STRIPE_API_PROTOCOL must be http or https, got "${value}"`);
+  return value;
+}
+
+function onOff(value: string | undefined, fallback: boolean, name: string): boolean {
+  if (value === undefined || value === '') return fallback;
+  if (value === 'on') return true;
+  if (value === 'off') return false;
+  throw new Error(`${name} must be on or off, got "${value}"`);
 }
 
 function testNow(env: NodeJS.ProcessEnv): Date | null {
@@ -86,6 +118,18 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     },
     logLevel: env.LOG_LEVEL ?? 'info',
     frontendDist: env.FRONTEND_DIST === '' ? null : (env.FRONTEND_DIST ?? null),
+    stripe: {
+      secretKey: env.STRIPE_SECRET_KEY || null,
+      webhookSecret: env.STRIPE_WEBHOOK_SECRET || null,
+      apiHost: env.STRIPE_API_HOST || null,
+      apiPort: env.STRIPE_API_PORT ? int(env.STRIPE_API_PORT, 0, 'STRIPE_API_PORT') : null,
+      apiProtocol: protocol(env.STRIPE_API_PROTOCOL),
+    },
+    commissions: {
+      scheduler: onOff(env.COMMISSIONS_SCHEDULER, true, 'COMMISSIONS_SCHEDULER'),
+      earningCron: env.COMMISSIONS_EARNING_CRON || '*/15 * * * *',
+      pollSeconds: int(env.COMMISSIONS_SCHEDULER_POLL_SECONDS, 30, 'COMMISSIONS_SCHEDULER_POLL_SECONDS'),
+    },
   };
 }
 

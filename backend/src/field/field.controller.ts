@@ -126,16 +126,25 @@ export class FieldController {
         file: { type: 'string', format: 'binary', description: 'JPEG, PNG, WebP or HEIC, at most 15 MB' },
         caption: { type: 'string', maxLength: 300 },
         installEntryId: { type: 'string', format: 'uuid' },
+        clientPhotoId: { type: 'string', format: 'uuid' },
       },
     },
   })
-  uploadPhoto(
+  @ApiOperation({ summary: 'A photo of the job or of a log row: 201 stored, 200 already stored (a resend)' })
+  async uploadPhoto(
     @CurrentUser() user: SessionUser,
     @Param('id', ParseUUIDPipe) id: string,
     @UploadedFile() file: UploadedPhotoFile | undefined,
     @Body() dto: UploadJobPhotoDto,
+    @Res({ passthrough: true }) res: Response,
   ): Promise<JobPhoto> {
-    return this.log.uploadPhoto(user, id, file, dto.caption || null, dto.installEntryId ?? null);
+    const { row, created } = await this.log.uploadPhoto(user, id, file, {
+      caption: dto.caption || null,
+      installEntryId: dto.installEntryId ?? null,
+      clientPhotoId: dto.clientPhotoId ?? null,
+    });
+    res.status(created ? 201 : 200);
+    return row;
   }
 
   @Get(':id/photos/:photoId')

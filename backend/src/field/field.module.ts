@@ -8,6 +8,8 @@ import { FieldController } from './field.controller';
 import { FieldRepository } from './field.repository';
 import { InstallLogService } from './install-log.service';
 import { JOB_COMPLETED_HANDLERS } from './job-completed';
+import { PaymentsModule } from '../payments/payments.module';
+import { PaymentsCompletionHandler } from '../payments/completion.handler';
 import { WarrantyService } from './warranty.service';
 
 /**
@@ -17,7 +19,7 @@ import { WarrantyService } from './warranty.service';
  * job-completed.ts).
  */
 @Module({
-  imports: [JobsModule, StorageModule],
+  imports: [JobsModule, StorageModule, PaymentsModule],
   controllers: [FieldController],
   providers: [
     FieldRepository,
@@ -26,7 +28,12 @@ import { WarrantyService } from './warranty.service';
     CompletionService,
     ActualsService,
     WarrantyService,
-    { provide: JOB_COMPLETED_HANDLERS, useValue: [] },
+    // Issue #5: completion posts the revenue and invoices the balance (src/payments/completion.handler.ts).
+    {
+      provide: JOB_COMPLETED_HANDLERS,
+      useFactory: (payments: PaymentsCompletionHandler) => [payments],
+      inject: [PaymentsCompletionHandler],
+    },
   ],
 })
 export class FieldModule {}

@@ -32,6 +32,7 @@ export interface JobExtras {
 export interface PhotoRecord {
   id: string;
   jobId: string;
+  clientPhotoId: string | null;
   installEntryId: string | null;
   storageKey: string;
   thumbnailKey: string | null;
@@ -181,6 +182,7 @@ export const photoUrl = (jobId: string, photoId: string) => `/api/jobs/${jobId}/
 
 export const toJobPhoto = (p: PhotoRecord): JobPhoto => ({
   id: p.id,
+  clientPhotoId: p.clientPhotoId,
   installEntryId: p.installEntryId,
   caption: p.caption,
   contentType: p.contentType,
@@ -376,6 +378,7 @@ export class FieldRepository {
     return db('job_photos').select(
       'id',
       'job_id as jobId',
+      'client_photo_id as clientPhotoId',
       'install_entry_id as installEntryId',
       'storage_key as storageKey',
       'thumbnail_key as thumbnailKey',
@@ -398,11 +401,17 @@ export class FieldRepository {
     return this.photos(db).where({ job_id: jobId, id: photoId }).first();
   }
 
+  /** The photo stored under the phone's id for it, on whichever job (the service checks which). */
+  async photoByClientId(clientPhotoId: string, db: Db = this.knex): Promise<PhotoRecord | undefined> {
+    return this.photos(db).where({ client_photo_id: clientPhotoId }).first();
+  }
+
   async insertPhoto(
     p: {
       id: string;
       jobId: string;
       branchId: string;
+      clientPhotoId: string | null;
       installEntryId: string | null;
       storageKey: string;
       thumbnailKey: string | null;
@@ -417,6 +426,7 @@ export class FieldRepository {
       id: p.id,
       job_id: p.jobId,
       branch_id: p.branchId,
+      client_photo_id: p.clientPhotoId,
       install_entry_id: p.installEntryId,
       storage_key: p.storageKey,
       thumbnail_key: p.thumbnailKey,

@@ -148,14 +148,21 @@ export class InstallLogService {
 
   // ---- photos -------------------------------------------------------------------------------------
 
+  /**
+   * Keeps a photo of the job (of one log row, when installEntryId names it). With a clientPhotoId, the
+   * photo is written once: a resend (the answer to the first upload was lost with the signal) finds the
+   * photo already stored and answers it (created false), whatever the job's state since.
+   */
   async uploadPhoto(
     user: SessionUser,
     jobId: string,
     file: UploadedPhotoFile | undefined,
-    caption: string | null,
-    installEntryId: string | null,
-  ): Promise<JobPhoto> {
+    fields: { caption: string | null; installEntryId: string | null; clientPhotoId: string | null },
+  ): Promise<Written<JobPhoto>> {
+    const { caption, installEntryId, clientPhotoId } = fields;
     const job = await this.access.writable(user, jobId);
+    const resent = clientPhotoId ? await this.resentPhoto(clientPhotoId, jobId) : undefined;
+    if (resent) return { row: resent, created: false };
     requireInProgress(job.status);
     if (installEntryId && !(await this.repo.entryBelongsToJob(installEntryId, jobId))) {
       throw invalid('installEntryId', 'That row is not in this job’s log.');
@@ -173,6 +180,7 @@ export class InstallLogService {
         id,
         jobId,
         branchId: job.branchId,
+        clientPhotoId,
         installEntryId,
         storageKey,
         thumbnailKey,
@@ -185,9 +193,14 @@ export class InstallLogService {
       for (const key of [storageKey, thumbnailKey]) {
         if (key) await this.storage.delete(key).catch((err) => this.logger.warn({ err, key }, 'Left a file'));
       }
+      // Two sends of the same photo at once: the first one written wins, the other answers it.
+      if (clientPhotoId && isUniqueViolation(e, 'job_photos_client_photo_id_key')) {
+        const stored = await this.resentPhoto(clientPhotoId, jobId);
+        if (stored) return { row: stored, created: false };
+      }
       throw e;
     }
-    return toJobPhoto((await this.repo.findPhoto(jobId, id))!);
+    return { row: toJobPhoto((await this.repo.findPhoto(jobId, id))!), created: true };
   }
 
   async photoContent(
@@ -241,6 +254,19 @@ export class InstallLogService {
     if (stored.jobId !== jobId) throw otherJob();
     const { jobId: _jobId, ...row } = stored;
     return row;
+  }
+
+  /** The photo already stored under this client id; 409 when it belongs to another job. */
+  private async resentPhoto(clientPhotoId: string, jobId: string): Promise<JobPhoto | undefined> {
+    const stored = await this.repo.photoByClientId(clientPhotoId);
+    if (!stored) return undefined;
+    if (stored.jobId !== jobId) {
+      throw conflict(
+        'PHOTO.CLIENT_ID_OTHER_JOB',
+        'A photo with this client id is already stored on another job: the phone must make a new id per photo.',
+      );
+    }
+    return toJobPhoto(stored);
   }
 
   private checkLoggedAt(loggedAt: string): void {

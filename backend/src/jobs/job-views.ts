@@ -134,6 +134,7 @@ export class JobViews {
       startOn: j.startOn,
       durationDays: j.durationDays,
       price: j.price,
+      estimatedLabourHours: j.estimatedLabourHours,
       risk: j.status === 'completed' || j.status === 'cancelled' ? 'none' : jobRisk(clocks),
       conflict,
     };
@@ -232,6 +233,8 @@ export class JobViews {
       can: {
         schedule: office && (j.status === 'unscheduled' || j.status === 'scheduled'),
         editPermits: office && open,
+        // The crew lead of the job's crew or the branch office; the blockers say whether today allows it.
+        start: mayUpdate && j.status === 'scheduled',
         log: mayUpdate && j.status === 'in_progress',
         complete: mayUpdate && j.status === 'in_progress',
         seeCosts,

@@ -37,6 +37,8 @@ export async function startTestApp(env: Record<string, string> = {}): Promise<Te
     LOG_LEVEL: 'silent',
     FRONTEND_DIST: '',
     JWT_SECRET: 'test-secret-of-enough-length',
+    // The pg-boss commission schedule stays off in test apps unless a test turns it on (commissions tests).
+    COMMISSIONS_SCHEDULER: 'off',
     ...env,
   });
   const app = await createApp(config);

@@ -5,8 +5,10 @@
 //   unit 'point', category soil_stabilisation      → injection points logged
 //   unit 'each' or 'point', category piers         → push piers logged
 //   unit 'each' or 'point', category helical_piles → helical piles logged
-//   unit 'hour'                                    → labour hours (sum of the day notes)
+//   unit 'hour'                                    → labour person-hours (sum of the day notes)
 //   anything else (mobilisation, permits, drainage, lump sums) → not measured: its planned quantity stands.
+// Labour hours are person-hours on both sides (one person working one hour: 3 people × 8 h = 24): the
+// price book's 'hour' items are priced per installer-hour and the day notes add everyone's hours up.
 // When several lines measure the same thing, the logged total fills them in plan order, each up to its
 // planned quantity, and whatever is left over goes on the last of them.
 //

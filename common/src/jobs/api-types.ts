@@ -85,6 +85,11 @@ export interface JobSummary {
   risk: 'none' | 'due_soon' | 'overdue';
   /** Another job on the same crew overlaps these days. */
   conflict: boolean;
+  /**
+   * The labour the plan carries, in person-hours (one person working one hour; 3 people × 8 h = 24), or
+   * null when the plan has no 'hour' line. Lists show it where the days are not known yet.
+   */
+  estimatedLabourHours?: string | null;
 }
 
 export interface JobDetail extends JobSummary {
@@ -121,7 +126,9 @@ export interface JobDetail extends JobSummary {
   conflicts: { jobId: string; number: string; startOn: string; durationDays: number }[];
   startedAt: string | null;
   completedAt: string | null;
+  /** Person-hours (see JobSummary). */
   estimatedLabourHours: string | null;
+  /** The cost of one person-hour. */
   labourCostPerHour: string | null;
   cautions: string[];
   /** What the signed-in user may do here. */
@@ -130,6 +137,9 @@ export interface JobDetail extends JobSummary {
     editPermits: boolean;
     log: boolean;
     complete: boolean;
+    /** The person may start the job (scheduled; its crew lead or the branch office); startBlockers say
+     *  whether the day's rules let it start now. */
+    start: boolean;
     /** Costs are shown (plan unit costs, labour cost per hour); false for a crew lead, whose are "0.00"/null. */
     seeCosts?: boolean;
   };
@@ -231,6 +241,7 @@ export interface DayNoteInput {
   workDate: string;
   note?: string | null;
   crewSize?: number | null;
+  /** Person-hours: everyone's hours added up (3 people × 8 h on site = 24). */
   labourHours: string;
 }
 
@@ -240,8 +251,18 @@ export interface DayNote extends DayNoteInput {
   createdAt: string;
 }
 
+/** The text fields of POST /jobs/:id/photos (multipart, beside `file`). */
+export interface JobPhotoUploadFields {
+  caption?: string;
+  installEntryId?: string;
+  /** The phone's id for the photo (uuid): a resend answers 200 with the photo already stored. */
+  clientPhotoId?: string;
+}
+
 export interface JobPhoto {
   id: string;
+  /** The phone's id for it, when the upload named one. */
+  clientPhotoId?: string | null;
   installEntryId: string | null;
   caption: string | null;
   contentType: string;
@@ -320,6 +341,7 @@ export interface JobActuals {
   actualGrossProfit: string;
   material: { plannedLb: string; usedLb: string; unitCost: string | null };
   piers: { planned: string; installed: number };
+  /** Person-hours on both sides: the plan's 'hour' lines and the day notes' labour hours. */
   labour: { estimatedHours: string | null; actualHours: string; costPerHour: string | null };
   /** Injection points logged against the plan's soil-stabilisation 'point' lines. */
   injectionPoints?: { planned: string; installed: number };

@@ -17,8 +17,9 @@ const qty = (v: InstanceType<typeof MoneyDecimal>) =>
     .replace(/\.?0+$/, '');
 
 /**
- * The labour the plan carries: hours from its 'hour' lines (to the hundredth, as jobs.estimated_labour_hours
- * keeps them) and the cost of an hour (their unit cost, weighted by hours when several lines differ).
+ * The labour the plan carries: person-hours from its 'hour' lines (to the hundredth, as
+ * jobs.estimated_labour_hours keeps them) and the cost of a person-hour (their unit cost, weighted by hours
+ * when several lines differ).
  * Null for both when the plan has no labour line.
  */
 export function labourEstimate(lines: PlanLineLike[]): { hours: string | null; costPerHour: string | null } {

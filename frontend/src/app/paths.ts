@@ -81,6 +81,122 @@ export const paths = {
     pattern: '/sign/:token',
     href: (token: string) => generatePath('/sign/:token', { token }),
   },
+  /** Field jobs (issue #4). */
+  jobs: {
+    pattern: '/jobs',
+    href: () => '/jobs',
+  },
+  jobCalendar: {
+    pattern: '/jobs/calendar',
+    href: (week?: string) => (week ? `/jobs/calendar?week=${encodeURIComponent(week)}` : '/jobs/calendar'),
+  },
+  jobActualsSummary: {
+    pattern: '/jobs/actuals',
+    href: () => '/jobs/actuals',
+  },
+  job: {
+    pattern: '/jobs/:jobId',
+    href: (jobId: string) => generatePath('/jobs/:jobId', { jobId }),
+  },
+  jobField: {
+    pattern: '/jobs/:jobId/field',
+    href: (jobId: string) => generatePath('/jobs/:jobId/field', { jobId }),
+  },
+  jobComplete: {
+    pattern: '/jobs/:jobId/complete',
+    href: (jobId: string) => generatePath('/jobs/:jobId/complete', { jobId }),
+  },
+  jobSheet: {
+    pattern: '/jobs/:jobId/sheet',
+    href: (jobId: string) => generatePath('/jobs/:jobId/sheet', { jobId }),
+  },
+  today: {
+    pattern: '/today',
+    href: () => '/today',
+  },
+  crews: {
+    pattern: '/admin/crews',
+    href: () => '/admin/crews',
+  },
+  /** The bookkeeper's ledger (issue #5): filters travel in the query string. */
+  ledgerJournal: {
+    pattern: '/ledger/journal',
+    href: () => '/ledger/journal',
+  },
+  ledgerAccount: {
+    pattern: '/ledger/accounts',
+    href: (o: { accountId?: string; from?: string; to?: string } = {}) => {
+      const p = new URLSearchParams();
+      if (o.accountId) p.set('account', o.accountId);
+      if (o.from) p.set('from', o.from);
+      if (o.to) p.set('to', o.to);
+      const qs = p.toString();
+      return qs ? `/ledger/accounts?${qs}` : '/ledger/accounts';
+    },
+  },
+  trialBalance: {
+    pattern: '/ledger/trial-balance',
+    href: () => '/ledger/trial-balance',
+  },
+  /** Reconciliation (issue #5): the workspace takes the account and the period in the query string. */
+  reconciliation: {
+    pattern: '/reconciliation',
+    href: (o: { bankAccountId?: string | null; from?: string; to?: string } = {}) => {
+      const p = new URLSearchParams();
+      if (o.bankAccountId) p.set('account', o.bankAccountId);
+      if (o.from) p.set('from', o.from);
+      if (o.to) p.set('to', o.to);
+      const qs = p.toString();
+      return qs ? `/reconciliation?${qs}` : '/reconciliation';
+    },
+  },
+  bankAccounts: {
+    pattern: '/reconciliation/accounts',
+    href: () => '/reconciliation/accounts',
+  },
+  uploadStatement: {
+    pattern: '/reconciliation/upload',
+    href: (bankAccountId?: string | null) =>
+      bankAccountId
+        ? `/reconciliation/upload?account=${encodeURIComponent(bankAccountId)}`
+        : '/reconciliation/upload',
+  },
+  payoutBreakdown: {
+    pattern: '/payouts/:payoutId',
+    href: (payoutId: string) => generatePath('/payouts/:payoutId', { payoutId }),
+  },
+  /** Commissions (issue #5): plans, statements, a salesperson's own. */
+  commissionPlans: {
+    pattern: '/commissions/plans',
+    href: () => '/commissions/plans',
+  },
+  commissionStatements: {
+    pattern: '/commissions/statements',
+    href: () => '/commissions/statements',
+  },
+  commissionStatement: {
+    pattern: '/commissions/statements/:statementId',
+    href: (statementId: string) => generatePath('/commissions/statements/:statementId', { statementId }),
+  },
+  myCommissions: {
+    pattern: '/commissions/mine',
+    href: () => '/commissions/mine',
+  },
+  /** Payments (issue #5): the bookkeeper's list of money received. */
+  payments: {
+    pattern: '/payments',
+    href: () => '/payments',
+  },
+  /** The card processor sends the homeowner here after paying (backend THANK_YOU_PATH): keep the path. */
+  paymentThankYou: {
+    pattern: '/payment/thank-you',
+    href: (sessionId: string) => `/payment/thank-you?session_id=${encodeURIComponent(sessionId)}`,
+  },
+  /** ... and here when they leave the payment page without paying (backend CANCELLED_PATH). */
+  paymentCancelled: {
+    pattern: '/payment/cancelled',
+    href: () => '/payment/cancelled',
+  },
 } as const;
 
 /**

@@ -30,6 +30,7 @@ import {
   type HelicalShaft,
   type InstallEntryInput,
   type InstallKind,
+  type JobPhotoUploadFields,
   type StopReason,
   type SurveyPointInput,
   type WarrantyInput,
@@ -153,7 +154,7 @@ export class DayNoteDto implements DayNoteInput {
   labourHours: string;
 }
 
-export class UploadJobPhotoDto {
+export class UploadJobPhotoDto implements JobPhotoUploadFields {
   @ApiPropertyOptional({ maxLength: 300 })
   @IsOptional()
   @Transform(trim)
@@ -166,6 +167,15 @@ export class UploadJobPhotoDto {
   @Transform(({ value }) => (value === '' ? undefined : value))
   @IsUUID('all', { message: 'installEntryId is the id of a row of this job’s log.' })
   installEntryId?: string;
+
+  @ApiPropertyOptional({
+    format: 'uuid',
+    description: 'the phone’s id for the photo: a resend answers 200 with the photo already stored',
+  })
+  @IsOptional()
+  @Transform(({ value }) => (value === '' ? undefined : value))
+  @IsUUID('all', { message: 'clientPhotoId is a uuid the phone makes for each photo.' })
+  clientPhotoId?: string;
 }
 
 /** Every item optional here: an unanswered one is refused by the rule (422, listing them all). */

@@ -2,6 +2,11 @@ import { NavLink } from 'react-router';
 import { useAppAbility, adminAccess } from '@/features/auth/ability';
 import { ApprovalsNavItem } from '@/features/approvals/components/approvals-nav-item';
 import { PriceBookNavItem } from '@/features/price-book/components/price-book-nav-item';
+import { CrewsNavItem, JobsNavItems } from '@/features/jobs/components/jobs-nav-items';
+import { LedgerNav } from '@/features/ledger/components/ledger-nav';
+import { CommissionsNav } from '@/features/commissions/components/commissions-nav';
+import { ReconciliationNavItem } from '@/features/reconciliation/components/reconciliation-nav-item';
+import { PaymentsNavItem } from '@/features/payments/components/payments-nav-item';
 import { paths } from '../paths';
 
 const linkClass = ({ isActive }: { isActive: boolean }) =>
@@ -29,7 +34,12 @@ export function AppNav({ onNavigate }: { onNavigate?: () => void }) {
           </li>
         ) : null}
         <ApprovalsNavItem onNavigate={onNavigate} idPrefix={onNavigate ? 'm-' : ''} />
+        <JobsNavItems onNavigate={onNavigate} />
+        <ReconciliationNavItem onNavigate={onNavigate} />
+        <PaymentsNavItem onNavigate={onNavigate} />
       </ul>
+      <LedgerNav onNavigate={onNavigate} />
+      <CommissionsNav onNavigate={onNavigate} />
       {access.branches || access.people ? (
         <div className="app-nav__group" role="group" aria-labelledby={`${onNavigate ? 'm-' : ''}nav-admin`}>
           <p className="app-nav__group-label" id={`${onNavigate ? 'm-' : ''}nav-admin`}>
@@ -53,6 +63,7 @@ export function AppNav({ onNavigate }: { onNavigate?: () => void }) {
               </li>
             ) : null}
             <PriceBookNavItem onNavigate={onNavigate} />
+            <CrewsNavItem onNavigate={onNavigate} />
           </ul>
         </div>
       ) : null}

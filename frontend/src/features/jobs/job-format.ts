@@ -177,5 +177,15 @@ export function daysFrom(a: string, b: string): number {
   return Math.round((Date.parse(`${b}T00:00:00Z`) - Date.parse(`${a}T00:00:00Z`)) / 86_400_000);
 }
 
-/** A price-book unit as people say it: 'lump_sum' → 'lump sum'. */
-export const formatUnit = (unit: string) => unit.replace(/_/g, ' ');
+/**
+ * A price-book unit as people say it: 'lump_sum' → 'lump sum'. Labour is counted in person-hours
+ * everywhere (the plan's 'hour' lines, the day notes, the actuals): one person working one hour.
+ */
+export const formatUnit = (unit: string) => (unit === 'hour' ? 'person-hour' : unit.replace(/_/g, ' '));
+
+/** Labour as a count of person-hours: '24' → '24 person-hours', '1' → '1 person-hour'. */
+export function formatPersonHours(value: string | null | undefined, fallback = '—'): string {
+  const q = formatQty(value, '');
+  if (!q) return fallback;
+  return `${q} ${q === '1' ? 'person-hour' : 'person-hours'}`;
+}

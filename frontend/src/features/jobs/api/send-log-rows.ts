@@ -12,13 +12,21 @@ export function postDayNote(jobId: string, input: DayNoteInput): Promise<DayNote
   return api.post<DayNote>(jobPath(jobId, '/log/day-notes'), input);
 }
 
+/** A photo; with its client id, a resend after a lost answer gets 200 and the photo already stored. */
 export function uploadJobPhoto(
   jobId: string,
-  photo: { file: Blob; fileName: string; caption: string | null; installEntryId: string | null },
+  photo: {
+    file: Blob;
+    fileName: string;
+    caption: string | null;
+    installEntryId: string | null;
+    clientPhotoId?: string | null;
+  },
 ): Promise<JobPhoto> {
   const form = new FormData();
   if (photo.caption?.trim()) form.append('caption', photo.caption.trim());
   if (photo.installEntryId) form.append('installEntryId', photo.installEntryId);
+  if (photo.clientPhotoId) form.append('clientPhotoId', photo.clientPhotoId);
   form.append('file', photo.file, photo.fileName);
   return uploadMultipart<JobPhoto>(`/api${jobPath(jobId, '/photos')}`, form);
 }

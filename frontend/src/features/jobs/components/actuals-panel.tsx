@@ -99,7 +99,12 @@ function ActualsBody({ a, completed }: { a: JobActuals; completed: boolean }) {
               <td className="numeric">{a.piers.installed}</td>
             </tr>
             <tr>
-              <th scope="row">Labour (hours)</th>
+              <th scope="row">
+                Labour (person-hours)
+                <span className="actuals-note muted">
+                  Everyone’s hours added up: the day notes against the plan’s labour lines
+                </span>
+              </th>
               <td className="numeric">{formatQty(a.labour.estimatedHours)}</td>
               <td className="numeric">{formatQty(a.labour.actualHours)}</td>
             </tr>

@@ -3,7 +3,7 @@ import { TableSkeleton } from '@/components/loading';
 import { useInstallLog } from '../api/get-install-log';
 import { LogList } from '../field/log-list';
 import { mergeNotes, mergeRows, runningTotals } from '../field/log-rows';
-import { formatDay, formatQty } from '../job-format';
+import { formatDay, formatPersonHours, formatQty } from '../job-format';
 import { JobPhotos } from './job-photos';
 
 /** The crew's log as the office reads it: totals, every row, the day notes, the photos. */
@@ -23,7 +23,7 @@ export function JobLogSection({ jobId }: { jobId: string }) {
       <p className="muted">
         {t.injectionPoints} injection points, {formatQty(t.pounds)} lb · {t.pushPiers} push piers ·{' '}
         {t.helicalPiles} helical piles{t.flagged ? ` (${t.flagged} below design load)` : ''} ·{' '}
-        {formatQty(t.labourHours)} labour hours
+        {formatPersonHours(t.labourHours)} of labour
       </p>
       <details className="job-log__rows">
         <summary>Every row</summary>
@@ -33,8 +33,8 @@ export function JobLogSection({ jobId }: { jobId: string }) {
         <ul className="note-list">
           {notes.map((n) => (
             <li key={n.clientRowId} className="note-list__item">
-              <span className="strong">{formatDay(n.workDate)}</span> · {formatQty(n.labourHours)} h
-              {n.crewSize ? ` · ${n.crewSize} people` : ''}
+              <span className="strong">{formatDay(n.workDate)}</span> · {formatPersonHours(n.labourHours)}
+              {n.crewSize ? ` · ${n.crewSize} ${n.crewSize === 1 ? 'person' : 'people'}` : ''}
               {n.writtenByName ? <span className="muted"> · {n.writtenByName}</span> : null}
               {n.note ? <p className="log-row__note">{n.note}</p> : null}
             </li>

@@ -24,7 +24,7 @@ export function PlanSection({ job, showMoney }: { job: JobDetail; showMoney: boo
           ))}
           {job.estimatedLabourHours ? (
             <div className="plan-counts__item">
-              <dt>Labour (hours)</dt>
+              <dt>Labour (person-hours)</dt>
               <dd>{formatQty(job.estimatedLabourHours)}</dd>
             </div>
           ) : null}

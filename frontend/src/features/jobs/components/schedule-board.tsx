@@ -4,7 +4,7 @@ import { Link } from 'react-router';
 import { Button } from 'primereact/button';
 import { addCalendarDays, type CalendarJob, type CalendarResponse, type JobSummary } from '@loambook/common';
 import { paths } from '@/app/paths';
-import { daysBetween, daysFrom, formatDay, formatRun, isWeekend } from '../job-format';
+import { daysBetween, daysFrom, formatDay, formatPersonHours, formatRun, isWeekend } from '../job-format';
 
 /** On the board the branch is known: 'MRW-J2612-002' shows as 'J2612-002' (the full number is in its name). */
 const shortNumber = (n: string) => n.replace(/^[A-Z]{2,5}-(?=.)/, '');
@@ -358,9 +358,12 @@ export function UnscheduledList({
                   <Link to={paths.job.href(job.id)} className="unscheduled__number">
                     {job.number}
                   </Link>
-                  <span className="muted">
-                    {job.durationDays === 1 ? '1 day' : `${job.durationDays} days`}
-                  </span>
+                  {/* What the job needs, from its plan (the days depend on the crew it goes to). */}
+                  {job.estimatedLabourHours ? (
+                    <span className="muted" data-testid={`needs-${job.id}`}>
+                      {formatPersonHours(job.estimatedLabourHours)}
+                    </span>
+                  ) : null}
                 </div>
                 <span>{job.homeownerName}</span>
                 <span className="muted">

@@ -10,7 +10,7 @@ import { Select } from '@/components/select';
 import { serverFormErrors, type FieldErrors } from '@/lib/form-errors';
 import { isApiError } from '@/lib/api-client';
 import { useScheduleJob, useUnscheduleJob } from '../api/schedule-job';
-import { formatDay } from '../job-format';
+import { formatDay, formatPersonHours } from '../job-format';
 import { RefusalMessage } from './refusal-message';
 
 export interface ScheduleTarget {
@@ -20,6 +20,8 @@ export interface ScheduleTarget {
   crewId: string | null;
   startOn: string | null;
   durationDays: number;
+  /** The plan's labour, person-hours (for the working days to fit the crew); null or absent when unknown. */
+  estimatedLabourHours?: string | null;
 }
 
 interface ScheduleDialogProps {
@@ -154,7 +156,18 @@ function ScheduleForm({
           label="Working days"
           error={errorFor('durationDays')}
           required
-          hint={ends ? `Last day ${formatDay(ends)}` : undefined}
+          hint={
+            ends || job.estimatedLabourHours
+              ? [
+                  ends ? `Last day ${formatDay(ends)}` : null,
+                  job.estimatedLabourHours
+                    ? `The plan has ${formatPersonHours(job.estimatedLabourHours)} of labour`
+                    : null,
+                ]
+                  .filter(Boolean)
+                  .join(' · ')
+              : undefined
+          }
         >
           {({ invalid, ...control }) => (
             <InputText

@@ -75,16 +75,16 @@ export function StartBlockers({
   );
 }
 
-/** The Start button, with the crew's last check that the utilities are marked. */
+/**
+ * The Start button, with the crew's last check that the utilities are marked. Shown when the server says
+ * the person may start this job (`can.start`: scheduled, and they are its crew lead or the branch office).
+ */
 export function StartJobButton({
   job,
-  canStart,
   onStarted,
   large = false,
 }: {
   job: JobDetail;
-  /** The person may update this job (its crew lead, the branch office): `can.log` opens only once started. */
-  canStart: boolean;
   onStarted: (j: JobDetail) => void;
   large?: boolean;
 }) {
@@ -92,7 +92,7 @@ export function StartJobButton({
   const [asking, setAsking] = useState(false);
   const [marked, setMarked] = useState(false);
   const [error, setError] = useState<unknown>(null);
-  if (job.status !== 'scheduled' || !canStart) return null;
+  if (job.status !== 'scheduled' || !job.can.start) return null;
 
   const go = async () => {
     setError(null);

@@ -3,14 +3,29 @@ import type { FormEvent } from 'react';
 import { Button } from 'primereact/button';
 import { InputText } from 'primereact/inputtext';
 import { InputTextarea } from 'primereact/inputtextarea';
-import type { DayNoteInput } from '@loambook/common';
+import { money, type DayNoteInput } from '@loambook/common';
 import { FormField } from '@/components/form-field';
 import type { FieldErrors } from '@/lib/form-errors';
-import { DECIMAL } from '../job-format';
+import { DECIMAL, formatQty } from '../job-format';
 
-type Field = 'workDate' | 'crewSize' | 'labourHours' | 'note';
+type Field = 'workDate' | 'crewSize' | 'hoursOnSite' | 'labourHours' | 'note';
 
-/** The day's note: what was done, who was there, the crew's hours (the labour actual). */
+const PEOPLE = /^\d{1,2}$/;
+
+/** People × hours on site, when both are filled in and sensible ('3' × '8' → '24'); null otherwise. */
+export function personHours(crewSize: string, hoursOnSite: string): string | null {
+  const people = crewSize.trim();
+  const hours = hoursOnSite.trim();
+  if (!PEOPLE.test(people) || Number(people) < 1 || Number(people) > 50) return null;
+  if (!DECIMAL.test(hours) || money(hours).isZero() || money(hours).greaterThan(24)) return null;
+  return money(people).times(money(hours)).toString();
+}
+
+/**
+ * The day's note: what was done, who was there and the labour, the actual set against the plan's labour
+ * lines. Labour is in person-hours, everyone's hours added up: the form multiplies the people on site by
+ * the hours they were there, shows the total, and lets the crew lead correct it (someone left at noon).
+ */
 export function DayNoteForm({
   today,
   onSubmit,
@@ -20,7 +35,9 @@ export function DayNoteForm({
 }) {
   const [workDate, setWorkDate] = useState(today);
   const [crewSize, setCrewSize] = useState('');
-  const [hours, setHours] = useState('');
+  const [hoursOnSite, setHoursOnSite] = useState('');
+  /** The total as typed over the product; null while it follows people × hours. */
+  const [typedTotal, setTypedTotal] = useState<string | null>(null);
   const [note, setNote] = useState('');
   const [submitted, setSubmitted] = useState(false);
   const [saving, setSaving] = useState(false);
@@ -28,11 +45,16 @@ export function DayNoteForm({
   const errors: FieldErrors<Field> = {};
   if (!/^\d{4}-\d{2}-\d{2}$/.test(workDate)) errors.workDate = 'Choose the day.';
   else if (workDate > today) errors.workDate = 'A day note is for today or a day already worked.';
-  if (crewSize.trim() && (!/^\d{1,2}$/.test(crewSize.trim()) || Number(crewSize) < 1))
+  if (crewSize.trim() && (!PEOPLE.test(crewSize.trim()) || Number(crewSize) < 1 || Number(crewSize) > 50))
     errors.crewSize = 'How many people, from 1 to 50.';
-  if (!hours.trim()) errors.labourHours = 'Enter the crew’s hours for the day (all people together).';
-  else if (!DECIMAL.test(hours.trim()) || Number(hours) > 1000)
-    errors.labourHours = 'A number of hours, e.g. 24 or 7.5.';
+  if (hoursOnSite.trim() && (!DECIMAL.test(hoursOnSite.trim()) || money(hoursOnSite.trim()).greaterThan(24)))
+    errors.hoursOnSite = 'Hours in the day, e.g. 8 or 7.5 (at most 24).';
+  const product = personHours(crewSize, hoursOnSite);
+  const hours = typedTotal ?? product ?? '';
+  if (!hours.trim())
+    errors.labourHours = 'Enter the people on site and their hours, or the person-hours for the day.';
+  else if (!DECIMAL.test(hours.trim()) || money(hours.trim()).greaterThan(1000))
+    errors.labourHours = 'A number of person-hours, e.g. 24 or 7.5.';
   const errorFor = (f: Field) => (submitted ? errors[f] : undefined);
 
   const submit = async (event: FormEvent) => {
@@ -47,8 +69,10 @@ export function DayNoteForm({
         labourHours: hours.trim(),
         note: note.trim() || null,
       });
+      // The same crew usually comes back tomorrow: the people stay; the hours and the note go.
       setSubmitted(false);
-      setHours('');
+      setHoursOnSite('');
+      setTypedTotal(null);
       setNote('');
     } finally {
       setSaving(false);
@@ -84,29 +108,72 @@ export function DayNoteForm({
           )}
         </FormField>
       </div>
-      <FormField
-        id="note-hours"
-        label="Labour hours"
-        error={errorFor('labourHours')}
-        required
-        hint="Everyone’s hours added up: 3 people for 8 hours is 24."
-      >
-        {({ invalid, ...control }) => (
-          <span className="unit-input">
-            <InputText
-              {...control}
-              value={hours}
-              inputMode="decimal"
-              onChange={(e) => setHours(e.target.value)}
-              invalid={invalid}
-              className="w-full field-input"
-            />
-            <span className="unit-input__unit" aria-hidden="true">
-              h
+      <div className="entry-form__row">
+        <FormField
+          id="note-on-site"
+          label="Hours on site"
+          error={errorFor('hoursOnSite')}
+          hint="Each person’s day"
+        >
+          {({ invalid, ...control }) => (
+            <span className="unit-input">
+              <InputText
+                {...control}
+                value={hoursOnSite}
+                inputMode="decimal"
+                onChange={(e) => setHoursOnSite(e.target.value)}
+                invalid={invalid}
+                className="w-full field-input"
+              />
+              <span className="unit-input__unit" aria-hidden="true">
+                h
+              </span>
             </span>
-          </span>
-        )}
-      </FormField>
+          )}
+        </FormField>
+        <FormField
+          id="note-hours"
+          label="Person-hours"
+          error={errorFor('labourHours')}
+          required
+          hint={
+            <span data-testid="person-hours-sum">
+              {product
+                ? `${crewSize.trim()} ${crewSize.trim() === '1' ? 'person' : 'people'} × ${formatQty(hoursOnSite.trim())} h = ${formatQty(product)}`
+                : 'People × hours on site'}
+              {typedTotal !== null && product && typedTotal.trim() !== product ? (
+                <>
+                  {' · '}
+                  <Button
+                    type="button"
+                    link
+                    size="small"
+                    className="person-hours__reset"
+                    label={`Use ${formatQty(product)}`}
+                    onClick={() => setTypedTotal(null)}
+                  />
+                </>
+              ) : null}
+            </span>
+          }
+        >
+          {({ invalid, ...control }) => (
+            <span className="unit-input unit-input--wide">
+              <InputText
+                {...control}
+                value={hours}
+                inputMode="decimal"
+                onChange={(e) => setTypedTotal(e.target.value)}
+                invalid={invalid}
+                className="w-full field-input"
+              />
+              <span className="unit-input__unit" aria-hidden="true">
+                person-h
+              </span>
+            </span>
+          )}
+        </FormField>
+      </div>
       <FormField id="note-text" label="What happened today" error={errorFor('note')}>
         {({ invalid, ...control }) => (
           <InputTextarea

@@ -15,6 +15,7 @@ import { Select } from '@/components/select';
 import type { FieldErrors } from '@/lib/form-errors';
 import { DECIMAL, formatQty, KIND_LABELS, KIND_SHORT, STOP_REASON_LABELS } from '../job-format';
 import { localCapacity } from './log-rows';
+import type { ShaftDefault } from './shaft-default';
 
 type Field =
   | 'number'
@@ -47,13 +48,15 @@ interface EntryFormProps {
   nextNumber: number;
   /** Numbers already in the log for this kind (the server keeps one row per number). */
   usedNumbers: Set<number>;
+  /** The shaft a new pile starts on (the last pile's, else the plan's); null: the crew lead chooses. */
+  defaultShaft?: ShaftDefault | null;
   onSubmit: (entry: EntrySubmit) => Promise<void>;
 }
 
 const numberOrNull = (v: string) => (v.trim() ? v.trim() : null);
 
 /** One row of the install log, for the kind of work in hand; big targets for a gloved thumb. */
-export function EntryForm({ kind, nextNumber, usedNumbers, onSubmit }: EntryFormProps) {
+export function EntryForm({ kind, nextNumber, usedNumbers, defaultShaft = null, onSubmit }: EntryFormProps) {
   const [number, setNumber] = useState(String(nextNumber));
   const [location, setLocation] = useState('');
   const [locationFt, setLocationFt] = useState('');
@@ -62,7 +65,9 @@ export function EntryForm({ kind, nextNumber, usedNumbers, onSubmit }: EntryForm
   const [stopReason, setStopReason] = useState<StopReason | null>(null);
   const [pressure, setPressure] = useState('');
   const [torque, setTorque] = useState('');
-  const [shaft, setShaft] = useState<HelicalShaft>('2.875in-round');
+  // Until the crew lead picks one, the shaft follows the job (the last pile logged, else the plan).
+  const [chosenShaft, setChosenShaft] = useState<HelicalShaft | null>(null);
+  const shaft = chosenShaft ?? defaultShaft?.shaft ?? null;
   const [designLoad, setDesignLoad] = useState('');
   const [note, setNote] = useState('');
   const [photo, setPhoto] = useState<File | null>(null);
@@ -110,11 +115,12 @@ export function EntryForm({ kind, nextNumber, usedNumbers, onSubmit }: EntryForm
   if (kind === 'helical_pile') {
     decimal('torqueFtLb', torque, 'final torque', true);
     decimal('designLoadLb', designLoad, 'design load', true);
+    if (!shaft) errors.shaft = 'Choose the pile’s shaft: it sets the torque factor behind the capacity.';
   }
   const errorFor = (f: Field) => (submitted ? errors[f] : undefined);
 
   const capacity =
-    kind === 'helical_pile' && !errors.torqueFtLb && !errors.designLoadLb
+    kind === 'helical_pile' && shaft && !errors.torqueFtLb && !errors.designLoadLb
       ? localCapacity({ shaft, torqueFtLb: torque.trim(), designLoadLb: designLoad.trim() })
       : null;
 
@@ -269,13 +275,20 @@ export function EntryForm({ kind, nextNumber, usedNumbers, onSubmit }: EntryForm
             {text('torqueFtLb', torque, setTorque, 'Final torque', { unit: 'ft·lb', required: true })}
             {text('designLoadLb', designLoad, setDesignLoad, 'Design load', { unit: 'lb', required: true })}
           </div>
-          <FormField id="entry-shaft" label="Shaft" required>
+          <FormField
+            id="entry-shaft"
+            label="Shaft"
+            required
+            error={errorFor('shaft')}
+            hint={chosenShaft === null && defaultShaft ? defaultShaft.from : undefined}
+          >
             {({ invalid, ...control }) => (
               <Select
                 inputId={control.id}
                 value={shaft}
                 options={HELICAL_SHAFTS.map((s) => ({ value: s, label: SHAFT_LABELS[s] }))}
-                onChange={(e) => setShaft(e.value as HelicalShaft)}
+                onChange={(e) => setChosenShaft(e.value as HelicalShaft)}
+                placeholder="Choose the shaft"
                 invalid={invalid}
                 className="w-full"
               />

@@ -1,5 +1,35 @@
 import { Button } from 'primereact/button';
-import type { QueuedRow } from '../offline/row-queue';
+import type { OthersWaiting, QueuedRow } from '../offline/row-queue';
+
+/** "2 rows entered by Hollis Varga are waiting for them to sign in again." */
+export function othersWaitingText(o: OthersWaiting): string {
+  const rows = o.count === 1 ? '1 row' : `${o.count} rows`;
+  return `${rows} entered by ${o.userName} ${o.count === 1 ? 'is' : 'are'} waiting for them to sign in again`;
+}
+
+/**
+ * Rows another person left on this phone: shown, not sent (they go with their own sign-in, under their
+ * name) and not offered for discarding.
+ */
+export function OthersWaitingNote({ others }: { others: readonly OthersWaiting[] }) {
+  if (!others.length) return null;
+  return (
+    <div className="outbox outbox--others" role="status" data-testid="outbox-others">
+      <i className="pi pi-user" aria-hidden="true" />
+      <span className="outbox__text">
+        {others.map((o) => (
+          <span key={o.userId} className="outbox__other">
+            {othersWaitingText(o)}.
+          </span>
+        ))}
+        <span className="outbox__why muted">
+          {' '}
+          They stay on this phone and are not sent with your sign-in.
+        </span>
+      </span>
+    </div>
+  );
+}
 
 /** How many rows are still only on this phone, and a way to send them now. */
 export function OutboxBanner({

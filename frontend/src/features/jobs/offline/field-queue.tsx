@@ -2,9 +2,19 @@ import { createContext, useContext, useEffect, useMemo, useSyncExternalStore } f
 import type { ReactNode } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import { createStore, del, entries, set } from 'idb-keyval';
+import { useCurrentUser } from '@/features/auth/auth-provider';
+import { sessionStore } from '@/features/auth/session-store';
 import { jobKeys } from '../api/job-cache';
 import { postDayNote, postInstallEntry, uploadJobPhoto } from '../api/send-log-rows';
-import { memoryQueueStorage, RowQueue, type QueuedRow, type QueueStorage, type RowSender } from './row-queue';
+import {
+  isRowOf,
+  memoryQueueStorage,
+  othersWaiting,
+  RowQueue,
+  type QueuedRow,
+  type QueueStorage,
+  type RowSender,
+} from './row-queue';
 
 /** IndexedDB through idb-keyval: one database, one store, the rows keyed by their clientRowId. */
 export function idbQueueStorage(): QueueStorage {
@@ -23,13 +33,16 @@ export const apiRowSender: RowSender = {
   photo: uploadJobPhoto,
 };
 
+/** Who is signed in, read from the store the API client takes its token from (so both always agree). */
+export const sessionUserId = (): string | null => sessionStore.get()?.user.id ?? null;
+
 let shared: RowQueue | null = null;
 
 /** The app's one outbox (IndexedDB where the browser has it; memory, and a warning, where it has not). */
 export function sharedRowQueue(): RowQueue {
   if (!shared) {
     const storage = typeof indexedDB === 'undefined' ? memoryQueueStorage(false) : idbQueueStorage();
-    shared = new RowQueue(storage, apiRowSender);
+    shared = new RowQueue(storage, apiRowSender, sessionUserId);
   }
   return shared;
 }
@@ -48,8 +61,9 @@ const RETRY_MS = 15_000;
  * Keeps the outbox moving while the app is open: a send when the browser says it is back online, every
  * RETRY_MS while rows wait, and once at the start. What was sent refreshes the job's log and actuals.
  */
-function useQueueSync(queue: RowQueue, waiting: number) {
+function useQueueSync(queue: RowQueue, userId: string, waiting: number) {
   const queryClient = useQueryClient();
+  // Again whenever someone else signs in on this phone: their own rows go then.
   useEffect(() => {
     const offSent = queue.onSent((sent) => {
       for (const id of new Set(sent.map((s) => s.jobId))) {
@@ -64,7 +78,7 @@ function useQueueSync(queue: RowQueue, waiting: number) {
       offSent();
       window.removeEventListener('online', online);
     };
-  }, [queue, queryClient]);
+  }, [queue, queryClient, userId]);
 
   useEffect(() => {
     if (!waiting) return;
@@ -81,17 +95,28 @@ function useQueueRows(queue: RowQueue) {
   );
 }
 
-/** The outbox for one job: its waiting rows, and a retry. */
+/**
+ * The outbox for one job: the signed-in person's waiting rows (theirs to send, retry or discard), the
+ * rows others left for this job on the phone (shown, never sent with this session), and a retry.
+ */
 export function useFieldQueue(jobId: string) {
   const provided = useContext(QueueContext);
   const queue = provided ?? sharedRowQueue();
+  const user = useCurrentUser();
   const all = useQueueRows(queue);
-  const rows = useMemo(() => all.filter((r) => r.jobId === jobId), [all, jobId]);
-  useQueueSync(queue, rows.length);
+  const forJob = useMemo(() => all.filter((r) => r.jobId === jobId), [all, jobId]);
+  const rows = useMemo(() => forJob.filter((r) => isRowOf(r, user.id)), [forJob, user.id]);
+  const others = useMemo(() => othersWaiting(forJob, user.id), [forJob, user.id]);
+  const othersRows = useMemo(() => forJob.filter((r) => !isRowOf(r, user.id)), [forJob, user.id]);
+  useQueueSync(queue, user.id, rows.length);
 
   return {
     queue,
+    /** Who is entering rows now (each new row is tagged with them). */
+    user: { id: user.id, name: user.name },
     rows,
+    others,
+    othersRows,
     add: (row: QueuedRow) => queue.add(row),
     retry: () => queue.retryAll(),
     discard: (clientRowId: string) => queue.discard(clientRowId),
@@ -101,13 +126,25 @@ export function useFieldQueue(jobId: string) {
 }
 
 /**
- * The whole outbox, for the navigation: how many rows wait on this phone, and their sending kept going on
- * every screen (not only on the job's own), so that a row goes as soon as the signal is back.
+ * The whole outbox, for the navigation: how many of the signed-in person's rows wait on this phone, and
+ * their sending kept going on every screen (not only on the job's own), so that a row goes as soon as the
+ * signal is back.
  */
 export function useOutboxWaiting(): number {
   const provided = useContext(QueueContext);
   const queue = provided ?? sharedRowQueue();
+  const user = useCurrentUser();
   const all = useQueueRows(queue);
-  useQueueSync(queue, all.length);
-  return all.length;
+  const mine = useMemo(() => all.filter((r) => isRowOf(r, user.id)).length, [all, user.id]);
+  useQueueSync(queue, user.id, mine);
+  return mine;
+}
+
+/** Rows other people left on this phone, on every job (for Today): they wait for their own sign-in. */
+export function useOthersWaiting() {
+  const provided = useContext(QueueContext);
+  const queue = provided ?? sharedRowQueue();
+  const user = useCurrentUser();
+  const all = useQueueRows(queue);
+  return useMemo(() => othersWaiting(all, user.id), [all, user.id]);
 }

@@ -1,21 +1,28 @@
-import { describe, expect, it, vi } from 'vitest';
+import { beforeEach, describe, expect, it, vi } from 'vitest';
 import type { DayNote, InstallEntry, InstallEntryInput, JobPhoto } from '@loambook/common';
 import { ApiError } from '@/lib/api-client';
 import {
   memoryQueueStorage,
+  othersWaiting,
   queuedBase,
   RowQueue,
   type QueuedEntry,
   type QueuedPhoto,
+  type QueueUser,
   type RowSender,
 } from './row-queue';
 
 const JOB = 'job-1';
+const HOLLIS: QueueUser = { id: 'user-hollis', name: 'Hollis Varga' };
+const PELL: QueueUser = { id: 'user-pell', name: 'Pell Asante' };
+/** Who is signed in, as the session store would say; the tests switch it. */
+let signedIn: string | null = HOLLIS.id;
+const whoIsSignedIn = () => signedIn;
 const offline = () =>
   new ApiError(0, { code: 'NETWORK.UNREACHABLE', message: 'Loambook could not be reached.', details: null });
 
-function entryRow(number: number): QueuedEntry {
-  const base = queuedBase(JOB);
+function entryRow(number: number, user: QueueUser = HOLLIS): QueuedEntry {
+  const base = queuedBase(JOB, user);
   const body: InstallEntryInput = {
     clientRowId: base.clientRowId,
     kind: 'injection',
@@ -55,11 +62,27 @@ function fakeServer() {
   return { sender, rows, photos, setSignal: (on: boolean) => (signal = on) };
 }
 
+function photoRow(user: QueueUser = HOLLIS): QueuedPhoto {
+  return {
+    ...queuedBase(JOB, user),
+    type: 'photo',
+    file: new Blob(['jpeg'], { type: 'image/jpeg' }),
+    fileName: 'site.jpg',
+    caption: 'Site',
+    entryClientRowId: null,
+    installEntryId: null,
+  };
+}
+
 describe('the crew’s outbox', () => {
+  beforeEach(() => {
+    signedIn = HOLLIS.id;
+  });
+
   it('keeps every row through a lost signal and sends them all, in order, when it is back', async () => {
     const server = fakeServer();
     const storage = memoryQueueStorage();
-    const queue = new RowQueue(storage, server.sender);
+    const queue = new RowQueue(storage, server.sender, whoIsSignedIn);
     await queue.ready();
 
     await queue.add(entryRow(1));
@@ -79,7 +102,7 @@ describe('the crew’s outbox', () => {
     expect(queue.offline).toBe(true);
 
     // A reload of the page reads them back from storage.
-    const afterReload = new RowQueue(storage, server.sender);
+    const afterReload = new RowQueue(storage, server.sender, whoIsSignedIn);
     await afterReload.ready();
     expect(afterReload.snapshot()).toHaveLength(2);
 
@@ -93,7 +116,7 @@ describe('the crew’s outbox', () => {
 
   it('removes a row when the server already had it (200 on a resend), without a second row', async () => {
     const server = fakeServer();
-    const queue = new RowQueue(memoryQueueStorage(), server.sender);
+    const queue = new RowQueue(memoryQueueStorage(), server.sender, whoIsSignedIn);
     const row = entryRow(4);
     // The first send reached the server but its answer was lost.
     server.rows.set(row.clientRowId, stored(row.body));
@@ -118,10 +141,10 @@ describe('the crew’s outbox', () => {
         return server.sender.entry(job, body);
       },
     };
-    const queue = new RowQueue(memoryQueueStorage(), sender);
+    const queue = new RowQueue(memoryQueueStorage(), sender, whoIsSignedIn);
     await queue.add(entryRow(1));
     await queue.add({
-      ...queuedBase(JOB),
+      ...queuedBase(JOB, HOLLIS),
       type: 'dayNote',
       body: { clientRowId: 'n1', workDate: '2026-12-08', labourHours: '16' },
     });
@@ -140,12 +163,12 @@ describe('the crew’s outbox', () => {
 
   it('sends a point’s photo after its row, with the row’s server id', async () => {
     const server = fakeServer();
-    const queue = new RowQueue(memoryQueueStorage(), server.sender);
+    const queue = new RowQueue(memoryQueueStorage(), server.sender, whoIsSignedIn);
     server.setSignal(false);
     const row = entryRow(7);
     await queue.add(row);
     const photo: QueuedPhoto = {
-      ...queuedBase(JOB),
+      ...queuedBase(JOB, HOLLIS),
       type: 'photo',
       file: new Blob(['jpeg'], { type: 'image/jpeg' }),
       fileName: 'point-7.jpg',
@@ -165,10 +188,117 @@ describe('the crew’s outbox', () => {
 
   it('never runs two sends of the same row at once', async () => {
     const server = fakeServer();
-    const queue = new RowQueue(memoryQueueStorage(), server.sender);
+    const queue = new RowQueue(memoryQueueStorage(), server.sender, whoIsSignedIn);
     await queue.ready();
     await queue.add(entryRow(1));
     await Promise.all([queue.flush(), queue.flush(), queue.flush()]);
     expect(server.sender.entry).toHaveBeenCalledTimes(1);
+  });
+
+  it('sends only the signed-in person’s rows; another’s wait on the phone for them, never dropped', async () => {
+    const server = fakeServer();
+    const storage = memoryQueueStorage();
+    const queue = new RowQueue(storage, server.sender, whoIsSignedIn);
+    await queue.ready();
+    // Hollis logs two points without signal, then signs out; Pell signs in on the same phone.
+    server.setSignal(false);
+    await queue.add(entryRow(1));
+    await queue.add(entryRow(2));
+    await queue.flush();
+    signedIn = PELL.id;
+    server.setSignal(true);
+    await queue.add(entryRow(3, PELL));
+    const sent = await queue.flush();
+
+    // Only Pell's row went (with Pell's session); Hollis's two are still stored, and named as theirs.
+    expect([...server.rows.values()].map((r) => r.number)).toEqual([3]);
+    expect(sent.waiting).toBe(0);
+    expect(await storage.all()).toHaveLength(2);
+    expect(othersWaiting(queue.snapshot(), PELL.id)).toEqual([
+      { userId: HOLLIS.id, userName: 'Hollis Varga', count: 2 },
+    ]);
+    // Pell can neither discard them nor clear their marks.
+    const hollisRow = queue.snapshot()[0]!;
+    await expect(queue.discard(hollisRow.clientRowId)).rejects.toThrow(/someone else/);
+    await queue.retryAll();
+    expect(server.rows.size).toBe(1);
+    expect(await storage.all()).toHaveLength(2);
+
+    // Nobody signed in: nothing goes either.
+    signedIn = null;
+    await queue.flush();
+    expect(server.rows.size).toBe(1);
+
+    // Hollis signs in again: their rows go, in order, under their session.
+    signedIn = HOLLIS.id;
+    const theirs = await queue.flush();
+    expect(theirs.sent.map((r) => (r.type === 'entry' ? r.result.number : 0))).toEqual([1, 2]);
+    expect(await storage.all()).toHaveLength(0);
+  });
+
+  it('checks who is signed in right before each send, not once per flush', async () => {
+    const server = fakeServer();
+    const sender: RowSender = {
+      ...server.sender,
+      entry: async (job, body) => {
+        const row = await server.sender.entry(job, body);
+        // Hollis's session ends while the first row is on its way; Pell signs in.
+        signedIn = PELL.id;
+        return row;
+      },
+    };
+    const queue = new RowQueue(memoryQueueStorage(), sender, whoIsSignedIn);
+    await queue.ready();
+    server.setSignal(false);
+    await queue.add(entryRow(1));
+    await queue.add(entryRow(2));
+    await queue.flush();
+    server.setSignal(true);
+    await queue.flush();
+    expect([...server.rows.values()].map((r) => r.number)).toEqual([1]);
+    expect(queue.snapshot().map((r) => (r.type === 'entry' ? r.body.number : 0))).toEqual([2]);
+  });
+
+  it('does not count a row from before rows were tagged as anyone’s (it waits, named as unknown)', async () => {
+    const server = fakeServer();
+    const storage = memoryQueueStorage();
+    const { userId: _u, userName: _n, ...untagged } = entryRow(9);
+    await storage.put(untagged as unknown as QueuedEntry);
+    const queue = new RowQueue(storage, server.sender, whoIsSignedIn);
+    await queue.ready();
+    await queue.flush();
+    expect(server.rows.size).toBe(0);
+    expect(othersWaiting(queue.snapshot(), HOLLIS.id)).toEqual([
+      { userId: '', userName: 'someone else', count: 1 },
+    ]);
+  });
+
+  it('sends each photo with its own client id, the same on every try, so a resend is not a second photo', async () => {
+    const stored = new Map<string, JobPhoto>();
+    let loseAnswer = true;
+    const server = fakeServer();
+    const sender: RowSender = {
+      ...server.sender,
+      photo: vi.fn(async (_job, p) => {
+        // The server keeps a photo once per client id (200 with the stored one on a resend).
+        const photo = stored.get(p.clientPhotoId) ?? ({ id: `ph-${stored.size + 1}` } as JobPhoto);
+        stored.set(p.clientPhotoId, photo);
+        if (loseAnswer) {
+          loseAnswer = false;
+          throw offline(); // stored, but the answer was lost with the signal
+        }
+        return photo;
+      }),
+    };
+    const queue = new RowQueue(memoryQueueStorage(), sender, whoIsSignedIn);
+    const row = photoRow();
+    await queue.add(row);
+    await queue.flush();
+    expect(queue.snapshot()).toHaveLength(1);
+    await queue.flush();
+    expect(queue.snapshot()).toHaveLength(0);
+    const ids = vi.mocked(sender.photo).mock.calls.map(([, p]) => p.clientPhotoId);
+    expect(ids).toEqual([row.clientRowId, row.clientRowId]);
+    expect(stored.size).toBe(1);
   });
 });

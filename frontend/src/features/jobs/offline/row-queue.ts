@@ -8,12 +8,27 @@ import { isApiError } from '@/lib/api-client';
  * waiting; it goes again when the browser is back online, on a timer, or on the retry button. A row the
  * server refuses (a 4xx with a reason) stays too, marked with the reason: nothing entered is dropped
  * without the crew lead choosing to.
+ *
+ * The outbox belongs to the phone, the rows to the person who entered them: each row carries the id of
+ * whoever was signed in when it was queued, and only that person's session sends it. Rows another person
+ * left on the phone wait for them to sign in again (the screens say so); they are never sent under someone
+ * else's name, nor dropped.
  */
+
+/** Who entered a row: the signed-in person when it was queued. */
+export interface QueueUser {
+  id: string;
+  name: string;
+}
 
 interface QueuedBase {
   /** The row's own id (uuid): the entry's or note's clientRowId, or the photo's outbox id. */
   clientRowId: string;
   jobId: string;
+  /** The person signed in when the row was queued; only their session sends it. */
+  userId: string;
+  /** Their name, for the screen to say whose rows wait when someone else is signed in. */
+  userName: string;
   queuedAt: string;
   attempts: number;
   /** The last failure, for the screen ("No signal", the server's reason). */
@@ -74,7 +89,14 @@ export interface RowSender {
   dayNote(jobId: string, body: DayNoteInput): Promise<DayNote>;
   photo(
     jobId: string,
-    photo: { file: Blob; fileName: string; caption: string | null; installEntryId: string | null },
+    photo: {
+      file: Blob;
+      fileName: string;
+      caption: string | null;
+      installEntryId: string | null;
+      /** The outbox row's id: a resend of the same photo finds it stored (200), not a second photo. */
+      clientPhotoId: string;
+    },
   ): Promise<JobPhoto>;
 }
 
@@ -87,7 +109,32 @@ export interface FlushResult {
   sent: SentRow[];
   /** Stopped on a network failure: the rows after it were not tried. */
   offline: boolean;
+  /** The signed-in person's rows still waiting (others' rows are not counted: they are not theirs to send). */
   waiting: number;
+}
+
+/** Another person's rows waiting on this phone, per person. */
+export interface OthersWaiting {
+  userId: string;
+  userName: string;
+  count: number;
+}
+
+/** Whether the row was entered by this person (a row from before rows were tagged belongs to nobody). */
+export const isRowOf = (row: QueuedRow, userId: string | null): boolean =>
+  userId !== null && typeof row.userId === 'string' && row.userId === userId;
+
+/** The rows entered by others than `userId`, grouped by person, the most rows first. */
+export function othersWaiting(rows: readonly QueuedRow[], userId: string | null): OthersWaiting[] {
+  const byUser = new Map<string, OthersWaiting>();
+  for (const r of rows) {
+    if (isRowOf(r, userId)) continue;
+    const key = typeof r.userId === 'string' ? r.userId : '';
+    const known = byUser.get(key);
+    if (known) known.count += 1;
+    else byUser.set(key, { userId: key, userName: r.userName || 'someone else', count: 1 });
+  }
+  return [...byUser.values()].sort((a, b) => b.count - a.count || a.userName.localeCompare(b.userName));
 }
 
 /** A failure that says nothing about the row: try the same row again later. */
@@ -118,11 +165,20 @@ export class RowQueue {
   /** Whether the last attempt failed for want of a network. */
   offline = false;
 
+  /**
+   * @param currentUserId who is signed in right now (null: nobody). Read again just before each send, from
+   * the same place the API client takes its token from, so that a row never goes with another's session.
+   */
   constructor(
     private readonly storage: QueueStorage,
     private readonly sender: RowSender,
+    private readonly currentUserId: () => string | null,
   ) {
     this.loaded = this.reload();
+  }
+
+  private mine(row: QueuedRow): boolean {
+    return isRowOf(row, this.currentUserId());
   }
 
   get durable(): boolean {
@@ -175,11 +231,11 @@ export class RowQueue {
     void this.flush();
   }
 
-  /** Clears the refusal marks (the crew lead fixed the cause, e.g. started the job) and sends again. */
+  /** Clears the refusal marks of the signed-in person's rows (they fixed the cause) and sends again. */
   async retryAll(): Promise<FlushResult> {
     await this.loaded;
     for (const row of this.rows) {
-      if (row.refused) {
+      if (row.refused && this.mine(row)) {
         const next = { ...row, refused: null };
         await this.storage.put(next);
         this.replace(next);
@@ -189,9 +245,15 @@ export class RowQueue {
     return this.flush();
   }
 
-  /** Removes one row the crew lead has chosen to give up (after a confirmation on the screen). */
+  /**
+   * Removes one row the crew lead has chosen to give up (after a confirmation on the screen). Only their
+   * own: another person's rows stay for them.
+   */
   async discard(clientRowId: string): Promise<void> {
     await this.loaded;
+    const row = this.rows.find((r) => r.clientRowId === clientRowId);
+    if (!row) return;
+    if (!this.mine(row)) throw new Error('This row was entered by someone else: it stays for them.');
     await this.storage.remove(clientRowId);
     this.rows = this.rows.filter((r) => r.clientRowId !== clientRowId);
     this.emit();
@@ -201,7 +263,7 @@ export class RowQueue {
     this.rows = this.rows.map((r) => (r.clientRowId === row.clientRowId ? row : r));
   }
 
-  /** Sends the waiting rows in the order they were entered; one flush at a time. */
+  /** Sends the signed-in person's waiting rows in the order they were entered; one flush at a time. */
   flush(): Promise<FlushResult> {
     if (this.flushing) {
       this.again = true;
@@ -227,12 +289,14 @@ export class RowQueue {
     for (const original of [...this.rows]) {
       // The row may have changed (a photo learning its entry's id) since the loop started.
       const row = this.rows.find((r) => r.clientRowId === original.clientRowId);
-      if (!row || row.refused) continue;
+      if (!row || row.refused || !this.mine(row)) continue;
       if (row.type === 'photo' && !row.installEntryId && row.entryClientRowId) {
         // Its install-log row is still waiting (or refused): the photo goes after it.
         if (this.rows.some((r) => r.clientRowId === row.entryClientRowId)) continue;
       }
       try {
+        // Checked again right before the send (someone may have signed in or out since the loop started).
+        if (!this.mine(row)) break;
         const done = await this.send(row);
         sent.push(done);
         await this.storage.remove(row.clientRowId);
@@ -264,7 +328,7 @@ export class RowQueue {
       }
     }
     if (sent.length) for (const l of this.sentListeners) l(sent);
-    return { sent, offline, waiting: this.rows.length };
+    return { sent, offline, waiting: this.rows.filter((r) => this.mine(r)).length };
   }
 
   private async linkPhotos(entryClientRowId: string, installEntryId: string) {
@@ -303,6 +367,7 @@ export class RowQueue {
             fileName: row.fileName,
             caption: row.caption,
             installEntryId: row.installEntryId,
+            clientPhotoId: row.clientRowId,
           }),
         };
     }
@@ -322,12 +387,17 @@ export function newRowId(): string {
 
 let lastQueuedMs = 0;
 
-/** The common fields of a new outbox row; queuedAt never repeats, so the order survives a reload. */
-export function queuedBase(jobId: string, clientRowId = newRowId()): QueuedBase {
+/**
+ * The common fields of a new outbox row, tagged with the person entering it; queuedAt never repeats, so
+ * the order survives a reload.
+ */
+export function queuedBase(jobId: string, user: QueueUser, clientRowId = newRowId()): QueuedBase {
   lastQueuedMs = Math.max(Date.now(), lastQueuedMs + 1);
   return {
     clientRowId,
     jobId,
+    userId: user.id,
+    userName: user.name,
     queuedAt: new Date(lastQueuedMs).toISOString(),
     attempts: 0,
     lastError: null,

@@ -4,8 +4,8 @@ import userEvent from '@testing-library/user-event';
 import { defineRulesFor } from '@loambook/common';
 import { routes } from '@/app/router';
 import { errorBody, fakeApi } from '@/testing/fake-api';
-import { makeBranch, makeUser, renderApp, signInAs } from '@/testing/render';
-import { CREW_A, CREW_B, JOB_ID, makeCalendar, makeJob } from '../testing/fixtures';
+import { BRANCH_IDS, makeBranch, makeUser, renderApp, signInAs } from '@/testing/render';
+import { CREW_A, CREW_B, JOB_ID, makeCalendar, makeJob, OTHER_JOB_ID } from '../testing/fixtures';
 
 function setUp(schedule: Parameters<typeof fakeApi>[0][string]) {
   const manager = makeUser('branch_manager');
@@ -80,5 +80,76 @@ describe('crew calendar', () => {
     const alerts = await screen.findAllByText('The homeowner can still cancel.');
     expect(alerts.length).toBeGreaterThan(0);
     expect(screen.getAllByText(/can start on Sat 2026-12-05 at the earliest/).length).toBeGreaterThan(0);
+  });
+
+  it('says what a job waiting for a crew needs from its plan, in person-hours, and invents nothing', async () => {
+    const manager = makeUser('branch_manager');
+    signInAs(manager);
+    const waiting = makeJob({ status: 'unscheduled', crewId: null, startOn: null, durationDays: 1 });
+    fakeApi({
+      'GET /api/auth/me': { body: { user: manager, rules: defineRulesFor(manager) } },
+      'GET /api/branches': { body: [makeBranch()] },
+      'GET /api/jobs/calendar': {
+        body: makeCalendar({
+          unscheduled: [
+            { ...waiting, estimatedLabourHours: '24.00' },
+            { ...waiting, id: OTHER_JOB_ID, number: 'MRW-J-0043', estimatedLabourHours: null },
+          ],
+        }),
+      },
+    });
+    renderApp(null, { routes, initialEntry: '/jobs/calendar?week=2026-12-07' });
+    expect(await screen.findByTestId(`needs-${JOB_ID}`)).toHaveTextContent('24 person-hours');
+    const other = screen.getByTestId(`unscheduled-${OTHER_JOB_ID}`);
+    expect(within(other).queryByText(/day|hour/)).not.toBeInTheDocument();
+    const list = screen.getByRole('region', { name: /Waiting for a crew/ });
+    expect(within(list).queryByText('1 day')).not.toBeInTheDocument();
+  });
+
+  it('opens on the first branch by code for the owner, and keeps the branch picked in the address', async () => {
+    const owner = makeUser('owner');
+    signInAs(owner);
+    const mrw = makeBranch();
+    const ald = makeBranch({ id: BRANCH_IDS.ald, code: 'ALD', name: 'Alderbrook' });
+    const { calls } = fakeApi({
+      'GET /api/auth/me': { body: { user: owner, rules: defineRulesFor(owner) } },
+      // The server's order is not the calendar's: the first branch is the first by code.
+      'GET /api/branches': { body: [mrw, ald] },
+      'GET /api/jobs/calendar': (req) => ({
+        body: makeCalendar({ branchId: req.query.get('branchId') ?? '' }),
+      }),
+    });
+    const { router } = renderApp(null, { routes, initialEntry: '/jobs/calendar?week=2026-12-07' });
+    await screen.findByTestId(`block-${JOB_ID}`);
+    expect(screen.queryByText('Choose a branch')).not.toBeInTheDocument();
+    const calendarCalls = () => calls.filter((c) => c.path === '/api/jobs/calendar');
+    expect(calendarCalls()[0]!.query.get('branchId')).toBe(BRANCH_IDS.ald);
+    expect(screen.getByText(/ALD · Alderbrook\. Days are on the branch’s calendar/)).toBeInTheDocument();
+
+    const pointer = userEvent.setup({ pointerEventsCheck: 0 });
+    await pointer.click(screen.getByLabelText('Calendar of'));
+    // PrimeReact's list sits in an overlay jsdom counts as hidden.
+    await pointer.click(await screen.findByRole('option', { name: 'MRW · Marrowfield', hidden: true }));
+    await waitFor(() => expect(router.state.location.search).toContain('branch=MRW'));
+    // The week stays as it was; the calendar is now Marrowfield's.
+    expect(router.state.location.search).toContain('week=2026-12-07');
+    await waitFor(() => expect(calendarCalls().at(-1)!.query.get('branchId')).toBe(BRANCH_IDS.mrw));
+    expect(await screen.findByText(/MRW · Marrowfield\. Days are/)).toBeInTheDocument();
+  });
+
+  it('opens on the branch the address names (a reload keeps the choice)', async () => {
+    const owner = makeUser('owner');
+    signInAs(owner);
+    const { calls } = fakeApi({
+      'GET /api/auth/me': { body: { user: owner, rules: defineRulesFor(owner) } },
+      'GET /api/branches': {
+        body: [makeBranch(), makeBranch({ id: BRANCH_IDS.ald, code: 'ALD', name: 'Alderbrook' })],
+      },
+      'GET /api/jobs/calendar': { body: makeCalendar() },
+    });
+    renderApp(null, { routes, initialEntry: '/jobs/calendar?week=2026-12-07&branch=MRW' });
+    await screen.findByTestId(`block-${JOB_ID}`);
+    const first = calls.find((c) => c.path === '/api/jobs/calendar')!;
+    expect(first.query.get('branchId')).toBe(BRANCH_IDS.mrw);
   });
 });

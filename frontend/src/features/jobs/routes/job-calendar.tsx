@@ -4,7 +4,7 @@ import { useSearchParams } from 'react-router';
 import { Button } from 'primereact/button';
 import { Card } from 'primereact/card';
 import { SelectButton } from 'primereact/selectbutton';
-import { addCalendarDays, type JobSummary } from '@loambook/common';
+import { addCalendarDays, type Branch, type JobSummary } from '@loambook/common';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { EmptyState } from '@/components/empty-state';
 import { TableSkeleton } from '@/components/loading';
@@ -12,7 +12,9 @@ import { useNotify } from '@/components/notify';
 import { PageHeader } from '@/components/page-header';
 import { useMediaQuery } from '@/lib/use-media-query';
 import { useAppAbility } from '@/features/auth/ability';
+import { useBranches } from '@/features/branches/api/get-branches';
 import { useCurrentBranch } from '@/features/branches/current-branch';
+import { Select } from '@/components/select';
 import { useCalendar } from '../api/get-calendar';
 import { useScheduleJob } from '../api/schedule-job';
 import { RefusalMessage } from '../components/refusal-message';
@@ -26,11 +28,31 @@ const SPANS = [
   { label: '2 weeks', value: 2 },
 ];
 
+/**
+ * The branch the calendar shows. The calendar is one branch's crews, so "All branches" in the switcher
+ * (the owner's, the bookkeeper's) does not leave it empty: it shows the branch named in the address
+ * (?branch=MRW, the last one picked on this screen), else the first branch by code.
+ */
+function calendarBranch(
+  current: Branch | null,
+  branches: readonly Branch[],
+  param: string | null,
+): Branch | null {
+  if (current) return current;
+  const named = param ? branches.find((b) => b.code === param || b.id === param) : undefined;
+  return named ?? branches[0] ?? null;
+}
+
 export default function JobCalendarRoute() {
   const ability = useAppAbility();
   const notify = useNotify();
-  const { branchId, branch } = useCurrentBranch();
+  const current = useCurrentBranch();
+  const branchesQuery = useBranches();
   const [params, setParams] = useSearchParams();
+  const branch = calendarBranch(current.branch, current.branches, params.get('branch'));
+  const branchId = branch?.id ?? null;
+  /** The switcher says "All branches": the calendar picks its branch itself, kept in the address. */
+  const picksOwnBranch = current.branchId === null && current.branches.length > 1;
   const today = todayFor(branch?.timezone);
   const weekParam = params.get('week');
   const from = mondayOf(weekParam && /^\d{4}-\d{2}-\d{2}$/.test(weekParam) ? weekParam : today);
@@ -46,6 +68,16 @@ export default function JobCalendarRoute() {
   const [editing, setEditing] = useState<ScheduleTarget | null>(null);
   const [refusal, setRefusal] = useState<unknown>(null);
   const [busyJobId, setBusyJobId] = useState<string | null>(null);
+
+  const pickBranch = (code: string) =>
+    setParams(
+      (p) => {
+        const next = new URLSearchParams(p);
+        next.set('branch', code);
+        return next;
+      },
+      { replace: true },
+    );
 
   const go = (week: string | null, w = weeks) =>
     setParams(
@@ -105,6 +137,7 @@ export default function JobCalendarRoute() {
       crewId: job.crewId,
       startOn: job.startOn,
       durationDays: job.durationDays,
+      estimatedLabourHours: job.estimatedLabourHours ?? null,
     });
 
   return (
@@ -120,14 +153,31 @@ export default function JobCalendarRoute() {
         }
       />
       {!branchId ? (
-        <Card className="content-card">
-          <EmptyState icon="pi-building" title="Choose a branch">
-            The calendar shows one branch’s crews: pick the branch in the switcher at the top.
-          </EmptyState>
-        </Card>
+        branchesQuery.isPending ? (
+          <TableSkeleton label="Loading the branches" rows={3} />
+        ) : (
+          <Card className="content-card">
+            <EmptyState icon="pi-building" title="No branch to show">
+              The calendar shows one branch’s crews, and there is no branch you may see yet.
+            </EmptyState>
+          </Card>
+        )
       ) : (
         <>
-          <div className="calendar-toolbar" role="toolbar" aria-label="Weeks">
+          <div className="calendar-toolbar" role="toolbar" aria-label="Branch and weeks">
+            {picksOwnBranch ? (
+              <span className="calendar-toolbar__branch">
+                <label htmlFor="calendar-branch" className="calendar-toolbar__label strong">
+                  Calendar of
+                </label>
+                <Select
+                  inputId="calendar-branch"
+                  value={branch?.code ?? null}
+                  options={current.branches.map((b) => ({ value: b.code, label: `${b.code} · ${b.name}` }))}
+                  onChange={(e) => (e.value ? pickBranch(e.value as string) : undefined)}
+                />
+              </span>
+            ) : null}
             <Button
               type="button"
               icon="pi pi-chevron-left"

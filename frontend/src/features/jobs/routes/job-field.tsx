@@ -4,8 +4,7 @@ import { Link, useNavigate, useParams } from 'react-router';
 import { Button } from 'primereact/button';
 import { Message } from 'primereact/message';
 import { SelectButton } from 'primereact/selectbutton';
-import { asSubject, money, type InstallKind, type JobDetail } from '@loambook/common';
-import { useAppAbility } from '@/features/auth/ability';
+import { money, type InstallKind, type JobDetail } from '@loambook/common';
 import { paths } from '@/app/paths';
 import { NotFound } from '@/app/routes/not-found';
 import { ApiErrorMessage } from '@/components/api-error-message';
@@ -23,10 +22,20 @@ import { DayNoteForm } from '../field/day-note-form';
 import { EntryForm, type EntrySubmit } from '../field/entry-form';
 import { LogList } from '../field/log-list';
 import { mergeNotes, mergeRows, nextNumber, runningTotals, type LogRow } from '../field/log-rows';
-import { OutboxBanner } from '../field/outbox-banner';
+import { OthersWaitingNote, OutboxBanner, othersWaitingText } from '../field/outbox-banner';
+import { defaultShaft } from '../field/shaft-default';
 import { useFieldQueue } from '../offline/field-queue';
 import { queuedBase } from '../offline/row-queue';
-import { dialable, formatDay, formatQty, formatRun, KIND_LABELS, mapsHref, todayFor } from '../job-format';
+import {
+  dialable,
+  formatDay,
+  formatPersonHours,
+  formatQty,
+  formatRun,
+  KIND_LABELS,
+  mapsHref,
+  todayFor,
+} from '../job-format';
 
 export default function JobFieldRoute() {
   const { jobId = '' } = useParams();
@@ -61,15 +70,6 @@ function kindsOf(job: JobDetail): InstallKind[] {
 /** The crew lead's phone screen for one job: start it, log each point or pier, the day's note. */
 function FieldPage({ job }: { job: JobDetail }) {
   const navigate = useNavigate();
-  const ability = useAppAbility();
-  const mayUpdate = ability.can(
-    'update',
-    asSubject('Job', {
-      branchId: job.branchId,
-      salespersonId: job.salespersonId,
-      crewLeadId: job.crewLeadId,
-    }),
-  );
   const notify = useNotify();
   const started = job.status === 'in_progress' || job.status === 'completed';
   const log = useInstallLog(job.id, { enabled: started });
@@ -82,7 +82,17 @@ function FieldPage({ job }: { job: JobDetail }) {
   const rows = useMemo(() => mergeRows(log.data, outbox.rows), [log.data, outbox.rows]);
   const notes = useMemo(() => mergeNotes(log.data, outbox.rows), [log.data, outbox.rows]);
   const totals = runningTotals(rows, notes);
-  const used = useMemo(() => new Set(rows.filter((r) => r.kind === kind).map((r) => r.number)), [rows, kind]);
+  // Numbers and the shaft also count the rows another crew lead left on this phone for this job (they are
+  // sent when that person signs in again): no number twice, the same piles.
+  const allRows = useMemo(
+    () => (outbox.othersRows.length ? mergeRows(log.data, [...outbox.rows, ...outbox.othersRows]) : rows),
+    [log.data, outbox.rows, outbox.othersRows, rows],
+  );
+  const used = useMemo(
+    () => new Set(allRows.filter((r) => r.kind === kind).map((r) => r.number)),
+    [allRows, kind],
+  );
+  const shaft = useMemo(() => defaultShaft(allRows, job.plan), [allRows, job.plan]);
 
   const keepFailed = (error: unknown) =>
     notify.error(
@@ -93,7 +103,7 @@ function FieldPage({ job }: { job: JobDetail }) {
     );
 
   const saveEntry = async ({ body, photo }: EntrySubmit) => {
-    const base = queuedBase(job.id);
+    const base = queuedBase(job.id, outbox.user);
     try {
       await outbox.add({
         ...base,
@@ -102,7 +112,7 @@ function FieldPage({ job }: { job: JobDetail }) {
       });
       if (photo) {
         await outbox.add({
-          ...queuedBase(job.id),
+          ...queuedBase(job.id, outbox.user),
           type: 'photo',
           file: photo,
           fileName: photo.name || `${body.kind}-${body.number}.jpg`,
@@ -120,7 +130,7 @@ function FieldPage({ job }: { job: JobDetail }) {
   const addPhoto = async (row: LogRow, file: File) => {
     try {
       await outbox.add({
-        ...queuedBase(job.id),
+        ...queuedBase(job.id, outbox.user),
         type: 'photo',
         file,
         fileName: file.name || `${row.kind}-${row.number}.jpg`,
@@ -180,7 +190,6 @@ function FieldPage({ job }: { job: JobDetail }) {
           <StartBlockers job={job} />
           <StartJobButton
             job={job}
-            canStart={mayUpdate}
             large
             onStarted={(j) => notify.success(`${j.number} started`, 'Log each point or pier as you go.')}
           />
@@ -203,6 +212,7 @@ function FieldPage({ job }: { job: JobDetail }) {
           retrying={retrying}
         />
       ) : null}
+      <OthersWaitingNote others={outbox.others} />
 
       {started ? (
         <dl className="field-totals" aria-label="Running totals">
@@ -244,7 +254,7 @@ function FieldPage({ job }: { job: JobDetail }) {
           ) : null}
           <div>
             <dt>Labour</dt>
-            <dd>{formatQty(totals.labourHours)} h</dd>
+            <dd>{formatQty(totals.labourHours)} person-h</dd>
           </div>
           {totals.flagged ? (
             <div className="field-totals__flag">
@@ -273,8 +283,9 @@ function FieldPage({ job }: { job: JobDetail }) {
           <EntryForm
             key={kind}
             kind={kind}
-            nextNumber={nextNumber(rows, kind)}
+            nextNumber={nextNumber(allRows, kind)}
             usedNumbers={used}
+            defaultShaft={shaft}
             onSubmit={saveEntry}
           />
         </section>
@@ -321,7 +332,7 @@ function FieldPage({ job }: { job: JobDetail }) {
           <DayNoteForm
             today={today}
             onSubmit={async (n) => {
-              const base = queuedBase(job.id);
+              const base = queuedBase(job.id, outbox.user);
               try {
                 await outbox.add({ ...base, type: 'dayNote', body: { ...n, clientRowId: base.clientRowId } });
               } catch (error) {
@@ -334,8 +345,8 @@ function FieldPage({ job }: { job: JobDetail }) {
             <ul className="note-list">
               {notes.map((n) => (
                 <li key={n.clientRowId} className="note-list__item">
-                  <span className="strong">{formatDay(n.workDate)}</span> · {formatQty(n.labourHours)} h
-                  {n.crewSize ? ` · ${n.crewSize} people` : ''}
+                  <span className="strong">{formatDay(n.workDate)}</span> · {formatPersonHours(n.labourHours)}
+                  {n.crewSize ? ` · ${n.crewSize} ${n.crewSize === 1 ? 'person' : 'people'}` : ''}
                   {n.state !== 'stored' ? (
                     <span className="log-row__state log-row__state--waiting">
                       {' '}
@@ -357,6 +368,12 @@ function FieldPage({ job }: { job: JobDetail }) {
             Walk the job with the homeowner: the final checklist, a new floor survey and their signature.
             {outbox.rows.length ? ' Send every waiting row first.' : ''}
           </p>
+          {outbox.others.length ? (
+            <p className="muted">
+              {outbox.others.map((o) => `${othersWaitingText(o)}.`).join(' ')} Completing now leaves them out
+              of the record: the log takes no rows once the job is completed.
+            </p>
+          ) : null}
           <Button
             type="button"
             label="Complete the job"

@@ -16,7 +16,13 @@ function renderJobAs(role: 'salesperson' | 'branch_manager', overrides: Paramete
     'GET /api/crews': { body: [] },
     [`GET /api/jobs/${JOB_ID}`]: {
       body: makeJob({
-        can: { schedule: !readOnly, editPermits: !readOnly, log: !readOnly, complete: !readOnly },
+        can: {
+          schedule: !readOnly,
+          editPermits: !readOnly,
+          start: !readOnly,
+          log: !readOnly,
+          complete: !readOnly,
+        },
         startBlockers: [
           {
             code: 'JOB.INSIDE_CANCELLATION_WINDOW',
@@ -55,5 +61,34 @@ describe('job page', () => {
     renderJobAs('branch_manager');
     expect(await screen.findByRole('heading', { name: 'Marisol Ebbing' })).toBeInTheDocument();
     for (const name of EDIT_BUTTONS) expect(screen.getByRole('button', { name })).toBeInTheDocument();
+  });
+
+  it('shows Start as the server allows it (can.start), not from the role alone', async () => {
+    // The manager may update the job, but the server answers that this job is not theirs to start now.
+    renderJobAs('branch_manager', {
+      can: { schedule: true, editPermits: true, start: false, log: false, complete: false },
+    });
+    expect(await screen.findByRole('heading', { name: 'Marisol Ebbing' })).toBeInTheDocument();
+    expect(screen.getByRole('button', { name: 'Field log' })).toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: 'Start job' })).not.toBeInTheDocument();
+  });
+
+  it('counts labour in person-hours on the plan', async () => {
+    renderJobAs('branch_manager', {
+      plan: [
+        {
+          code: 'CREW-HOUR',
+          description: 'Installer labour',
+          category: 'mobilisation',
+          unit: 'hour',
+          quantity: '24',
+          unitCost: '65.00',
+          unitPrice: '125.00',
+        },
+      ],
+      estimatedLabourHours: '24.00',
+    });
+    expect(await screen.findByText('Labour (person-hours)')).toBeInTheDocument();
+    expect(screen.getByRole('cell', { name: 'person-hour' })).toBeInTheDocument();
   });
 });

@@ -57,6 +57,7 @@ function JobPage({ job }: { job: JobDetail }) {
   });
   const mayUpdate = ability.can('update', subject);
   const can = {
+    ...job.can,
     schedule: job.can.schedule && mayUpdate,
     editPermits: job.can.editPermits && mayUpdate,
     log: job.can.log && mayUpdate,
@@ -164,7 +165,6 @@ function JobPage({ job }: { job: JobDetail }) {
         <JobHeader job={shown} actions={actions} />
         <StartJobButton
           job={shown}
-          canStart={mayUpdate}
           onStarted={(j) => notify.success(`${j.number} started`, 'The crew can log points and piers now.')}
         />
       </Card>

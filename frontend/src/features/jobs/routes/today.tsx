@@ -8,6 +8,8 @@ import { useCurrentUser } from '@/features/auth/auth-provider';
 import { useCurrentBranch } from '@/features/branches/current-branch';
 import { useToday } from '../api/get-today';
 import { JobStatusTag } from '../components/job-badges';
+import { OthersWaitingNote } from '../field/outbox-banner';
+import { useOthersWaiting } from '../offline/field-queue';
 import { daysFrom, formatDayLong, formatRun, todayFor } from '../job-format';
 
 /** The crew lead's day: the jobs their crew is on today, each a big tap to its log. */
@@ -16,6 +18,7 @@ export default function TodayRoute() {
   const { branch } = useCurrentBranch();
   const today = todayFor(branch?.timezone);
   const jobs = useToday();
+  const others = useOthersWaiting();
   const firstName = user.name.split(/\s+/)[0] ?? user.name;
   return (
     <div className="page field-page">
@@ -25,6 +28,7 @@ export default function TodayRoute() {
           {formatDayLong(today)} · {firstName}’s crew
         </p>
       </header>
+      <OthersWaitingNote others={others} />
       {jobs.isPending ? (
         <TableSkeleton rows={3} label="Loading today’s jobs" />
       ) : jobs.isError ? (

@@ -68,7 +68,7 @@ export function makeJob(overrides: Partial<JobDetail> = {}): JobDetail {
     estimatedLabourHours: '32',
     labourCostPerHour: '38.00',
     cautions: [],
-    can: { schedule: true, editPermits: true, log: true, complete: true },
+    can: { schedule: true, editPermits: true, start: true, log: true, complete: true },
     ...overrides,
   };
 }

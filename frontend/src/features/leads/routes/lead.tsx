@@ -14,9 +14,11 @@ import { isApiError } from '@/lib/api-client';
 import { formatDate, formatDateTime } from '@/lib/format';
 import { useAppAbility } from '@/features/auth/ability';
 import { useCurrentUser } from '@/features/auth/auth-provider';
-import { useCurrentBranch } from '@/features/branches/current-branch';
 import { LeadInspections } from '@/features/inspections/components/lead-inspections';
 import { LeadProposals } from '@/features/proposals/components/lead-proposals';
+import { useLeadContract } from '@/features/proposals/api/get-lead-contract';
+import { RecordCancellationDialog } from '@/features/signing/components/record-cancellation-dialog';
+import { LeadPayments } from '@/features/payments/components/lead-payments';
 import { useLead } from '../api/get-lead';
 import { EditLeadDialog } from '../components/edit-lead-dialog';
 import { LeadHeader } from '../components/lead-header';
@@ -42,13 +44,12 @@ export default function LeadRoute() {
   return <LeadPage key={lead.data.id} lead={lead.data} />;
 }
 
-type Open = null | 'edit' | 'lost' | 'transfer';
+type Open = null | 'edit' | 'lost' | 'transfer' | 'cancel';
 
 function LeadPage({ lead }: { lead: LeadDetail }) {
   const ability = useAppAbility();
   const user = useCurrentUser();
   const notify = useNotify();
-  const { branches } = useCurrentBranch();
   const [open, setOpen] = useState<Open>(null);
 
   const subject = asSubject('Lead', { branchId: lead.branchId, salespersonId: lead.salespersonId });
@@ -63,6 +64,32 @@ function LeadPage({ lead }: { lead: LeadDetail }) {
       'create',
       asSubject('Inspection', { branchId: lead.branchId, salespersonId: lead.salespersonId }),
     );
+
+  // The contract only while its cancellation clock runs (the lead says so): staff may then record a
+  // cancellation the homeowner made by phone or mail. After the window a manager still can (the API
+  // allows it, with the reason), but not from here: that is an exception, not a routine step.
+  const contract = useLeadContract(lead.id, { enabled: Boolean(lead.lastDayToCancel) && !lead.readOnly });
+  const cancellable =
+    contract.data?.canCancel && contract.data.windowOpen && contract.data.status !== 'cancelled'
+      ? contract.data
+      : null;
+  const canRecordCancellation =
+    cancellable !== null &&
+    ability.can(
+      'update',
+      asSubject('Contract', { branchId: cancellable.branchId, salespersonId: cancellable.salespersonId }),
+    );
+
+  const cancelButton = canRecordCancellation ? (
+    <Button
+      type="button"
+      label="Record cancellation"
+      icon="pi pi-ban"
+      severity="danger"
+      outlined
+      onClick={() => setOpen('cancel')}
+    />
+  ) : null;
 
   const actions = canUpdate ? (
     <>
@@ -86,8 +113,11 @@ function LeadPage({ lead }: { lead: LeadDetail }) {
           onClick={() => setOpen('lost')}
         />
       ) : null}
+      {cancelButton}
     </>
-  ) : null;
+  ) : (
+    cancelButton
+  );
 
   return (
     <div className="page page--wide lead-page">
@@ -148,6 +178,7 @@ function LeadPage({ lead }: { lead: LeadDetail }) {
                   <LeadProposals leadId={lead.id} />
                 </section>
               </Card>
+              <LeadPaymentsCard lead={lead} />
             </>
           )}
           <Card className="content-card">
@@ -216,6 +247,20 @@ function LeadPage({ lead }: { lead: LeadDetail }) {
         </aside>
       </div>
 
+      {canRecordCancellation ? (
+        <RecordCancellationDialog
+          contract={cancellable}
+          visible={open === 'cancel'}
+          onClose={() => setOpen(null)}
+          onDone={(c) => {
+            setOpen(null);
+            notify.success(
+              'Cancellation recorded',
+              `${c.homeownerName}’s contract is cancelled; the refund is due within 10 business days.`,
+            );
+          }}
+        />
+      ) : null}
       {canUpdate ? (
         <>
           <EditLeadDialog
@@ -236,7 +281,6 @@ function LeadPage({ lead }: { lead: LeadDetail }) {
           {manages ? (
             <TransferDialog
               lead={lead}
-              branches={branches}
               visible={open === 'transfer'}
               onClose={() => setOpen(null)}
               onDone={(l) => {
@@ -248,5 +292,28 @@ function LeadPage({ lead }: { lead: LeadDetail }) {
         </>
       ) : null}
     </div>
+  );
+}
+
+/** The contract's money (issue #5), in its own card once the lead has a contract the person may see. */
+function LeadPaymentsCard({ lead }: { lead: LeadDetail }) {
+  if (
+    !lead.lastDayToCancel &&
+    ![
+      'contract_signed',
+      'deposit_received',
+      'scheduled',
+      'in_progress',
+      'completed',
+      'paid_in_full',
+      'cancelled',
+    ].includes(lead.stage)
+  ) {
+    return null;
+  }
+  return (
+    <Card className="content-card lead-payments-card">
+      <LeadPayments leadId={lead.id} homeownerName={lead.homeownerName} homeownerEmail={lead.email ?? null} />
+    </Card>
   );
 }

@@ -1,0 +1,337 @@
+// Webhook ingestion of the compiled server: unique and duplicate signed events per second, against pgbench
+// with the same concurrency in the same run, running two SQL transactions:
+//   - "inserts": the insert into webhook_events and the posting inserts (journal entry, its three lines, the
+//     payment with its timeline row) — the transaction's writes alone;
+//   - "app's statements": every statement the app runs for a posting event, in order (the duplicate lookup,
+//     the event claim, the contract locked with the charge check, LedgerService.post's key check, accounts,
+//     record checks, entry, lines and read-back, the payment with its timeline row).
+// Targets (issue #5): unique posting events ≥ 40% of the pgbench rate; a duplicate costs ≤ 1 ms (the
+// server's own time after the signature check, from its Server-Timing header, and the whole request).
+//
+// The card-processor fake runs in this process (the server's SDK fetches the charge's balance transaction
+// from it, as it would from the real service); the events are taken from the fake and posted here, signed
+// with the endpoint secret, so that delivery is not the bottleneck being measured.
+//   - posting events: one charge.succeeded per charge, each new: records and posts the payment;
+//   - natural mix: what the processor sends for each payment (payment_intent.created, charge.succeeded,
+//     payment_intent.succeeded, checkout.session.completed; only one of them posts);
+//   - duplicates: the posting events again: each answers 200 from the one indexed insert.
+// Usage: npm run build && node backend/bench/webhooks.bench.mjs [--charges 3000] [--concurrency 8] [--seconds 10]
+import { execFileSync, spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import os from 'node:os';
+import path from 'node:path';
+import { dropDatabase, freshDatabase, percentile, pg, startServer } from './lib.mjs';
+import { REPO } from '../scripts/lib/env.mjs';
+
+const require = createRequire(import.meta.url);
+const arg = (name, fallback) => {
+  const i = process.argv.indexOf(`--${name}`);
+  return i > 0 ? Number(process.argv[i + 1]) : fallback;
+};
+const CHARGES = arg('charges', 3000);
+const CONCURRENCY = arg('concurrency', 8);
+const SECONDS = arg('seconds', 10);
+const CONTRACTS = 40;
+const DB = 'loambook_bench_webhooks';
+const SECRET = 'whsec_bench_local_only_0123456789abcdef';
+
+const fakeModule = path.join(REPO, 'backend/dist/backend/fakes/stripe/index.js');
+if (!existsSync(fakeModule))
+  throw new Error('Build first: npm run build (the fake is compiled with the backend)');
+const { startStripeFake, signatureHeader } = require(fakeModule);
+const Stripe = require('stripe');
+
+function findPgbench() {
+  const onPath = spawnSync('sh', ['-c', 'command -v pgbench'], { encoding: 'utf8' }).stdout.trim();
+  const root = '/usr/lib/postgresql';
+  const versions = existsSync(root) ? readdirSync(root).sort((a, b) => Number(b) - Number(a)) : [];
+  const found =
+    versions.map((v) => path.join(root, v, 'bin', 'pgbench')).find((f) => existsSync(f)) ?? (onPath || null);
+  if (!found) throw new Error('pgbench not found (apt-get install postgresql-contrib or postgresql-client)');
+  return found;
+}
+
+// ---- data: a branch, 40 signed contracts (written straight to the tables) ------------------------------
+const knex = await freshDatabase(DB);
+const {
+  rows: [branch],
+} = await knex.raw(`insert into branches (code, name, address_line1, city, state, postal_code, timezone,
+    margin_floor_pct, discount_limit_salesperson_pct, discount_limit_manager_pct, sales_tax_treatment)
+  values ('WB01', 'Bench Webhooks', '1 Bench Road', 'Benchton', 'FL', '32000', 'America/New_York', 35, 10, 20,
+    'materials_cost') returning id`);
+const {
+  rows: [seller],
+} =
+  await knex.raw(`insert into users (name, email, role) values ('Bench Seller', 'seller@bench.test', 'salesperson')
+  returning id`);
+await knex.raw('insert into user_branches (user_id, branch_id) values (?, ?)', [seller.id, branch.id]);
+const contracts = [];
+for (let i = 0; i < CONTRACTS; i++) {
+  const {
+    rows: [lead],
+  } = await knex.raw(
+    `insert into leads (branch_id, salesperson_id, homeowner_name, phone_primary, email, address_line1, city, state,
+       postal_code, stage)
+     values (?, ?, ?, '555-0150', ?, '7 Clay Street', 'Benchton', 'FL', '32000', 'contract_signed') returning id`,
+    [branch.id, seller.id, `Bench Homeowner ${i}`, `bench.homeowner.${i}@example.com`],
+  );
+  const {
+    rows: [proposal],
+  } = await knex.raw(
+    `insert into proposals (lead_id, branch_id, version, status, salesperson_id, created_by)
+     values (?, ?, 1, 'approved', ?, ?) returning id`,
+    [lead.id, branch.id, seller.id, seller.id],
+  );
+  const {
+    rows: [option],
+  } = await knex.raw(
+    `insert into proposal_options (proposal_id, branch_id, position, title, list_total, net_total, customer_total)
+     values (?, ?, 1, 'Stabilise the slab', 999999.00, 999999.00, 999999.00) returning id`,
+    [proposal.id, branch.id],
+  );
+  const {
+    rows: [contract],
+  } = await knex.raw(
+    `insert into contracts (proposal_id, option_id, lead_id, branch_id, salesperson_id, price, signed_by_name,
+       signed_at, signed_on, signature_png, cancellation_statement, last_day_to_cancel, deposit_amount)
+     values (?, ?, ?, ?, ?, 999999.00, 'Bench Homeowner', now(), current_date, '\\x89504e47'::bytea, 'x',
+       current_date + 3, 1000.00) returning id`,
+    [proposal.id, option.id, lead.id, branch.id, seller.id],
+  );
+  contracts.push({ id: contract.id, leadId: lead.id });
+}
+
+// ---- the fake and the server ------------------------------------------------------------------------
+const fake = await startStripeFake({ port: 0, webhookSecret: SECRET });
+const server = await startServer(DB, {
+  STRIPE_SECRET_KEY: 'sk_test_bench_webhooks',
+  STRIPE_WEBHOOK_SECRET: SECRET,
+  STRIPE_API_HOST: '127.0.0.1',
+  STRIPE_API_PORT: String(fake.port),
+  STRIPE_API_PROTOCOL: 'http',
+  LOG_LEVEL: 'warn',
+});
+const webhook = `${server.url}/api/payments/webhook`;
+const sdk = new Stripe('sk_test_bench_driver', { host: '127.0.0.1', port: fake.port, protocol: 'http' });
+
+/** Makes `n` paid sessions (metadata as our links carry it); returns their events in the order made. */
+async function payments(n) {
+  const from = fake.state.events.size;
+  for (let i = 0; i < n; i++) {
+    const c = contracts[i % contracts.length];
+    const metadata = { contractId: c.id, branchId: branch.id, kind: i % 2 ? 'balance' : 'deposit' };
+    const s = await sdk.checkout.sessions.create({
+      mode: 'payment',
+      line_items: [
+        {
+          price_data: {
+            currency: 'usd',
+            unit_amount: 10_000 + (i % 900) * 111,
+            product_data: { name: 'Bench' },
+          },
+          quantity: 1,
+        },
+      ],
+      metadata,
+      payment_intent_data: { metadata },
+      success_url: 'http://loambook.test/payment/thank-you',
+    });
+    if (fake.pay(s.id, '4242 4242 4242 4242').outcome !== 'succeeded') throw new Error('payment failed');
+  }
+  return [...fake.state.events.values()].slice(from);
+}
+
+const bodies = (events) => events.map((e) => JSON.stringify(e));
+let statusErrors = 0;
+let serverMs = [];
+async function post(body) {
+  const r = await fetch(webhook, {
+    method: 'POST',
+    headers: {
+      'content-type': 'application/json',
+      'stripe-signature': signatureHeader(body, SECRET, Math.floor(Date.now() / 1000)),
+    },
+    body,
+  });
+  await r.arrayBuffer();
+  if (r.status !== 200) statusErrors += 1;
+  const timing = /process;dur=([\d.]+)/.exec(r.headers.get('server-timing') ?? '');
+  if (timing) serverMs.push(Number(timing[1]));
+}
+
+/** Posts every body once from `concurrency` loops; returns { rate, latencies }. */
+async function run(list, concurrency = CONCURRENCY) {
+  let next = 0;
+  serverMs = [];
+  const latencies = [];
+  const t0 = process.hrtime.bigint();
+  await Promise.all(
+    Array.from({ length: concurrency }, async () => {
+      while (next < list.length) {
+        const body = list[next++];
+        const s = process.hrtime.bigint();
+        await post(body);
+        latencies.push(Number(process.hrtime.bigint() - s) / 1e6);
+      }
+    }),
+  );
+  const seconds = Number(process.hrtime.bigint() - t0) / 1e9;
+  latencies.sort((a, b) => a - b);
+  serverMs.sort((a, b) => a - b);
+  return { rate: list.length / seconds, latencies, seconds, server: serverMs };
+}
+
+const fmt = (r) =>
+  `${r.rate.toFixed(0).padStart(5)} events/s  request p50 ${percentile(r.latencies, 50).toFixed(2)} ms  p95 ` +
+  `${percentile(r.latencies, 95).toFixed(2)} ms  server p50 ${percentile(r.server, 50).toFixed(2)} ms  p95 ` +
+  `${percentile(r.server, 95).toFixed(2)} ms`;
+
+const results = {};
+let pgbenchDir = null;
+try {
+  // warm the server and both connections
+  const warm = bodies((await payments(50)).filter((e) => e.type === 'charge.succeeded'));
+  await run(warm);
+
+  console.log(`Making ${CHARGES} paid sessions in the fake …`);
+  const events = await payments(CHARGES);
+  const posting = bodies(events.filter((e) => e.type === 'charge.succeeded'));
+  const mixPayments = await payments(Math.floor(CHARGES / 2));
+  const mix = bodies(mixPayments);
+
+  const before = Number((await knex.raw(`select count(*) as n from journal_entries`)).rows[0].n);
+  results.posting = await run(posting);
+  const after = Number((await knex.raw(`select count(*) as n from journal_entries`)).rows[0].n);
+  if (after - before !== posting.length)
+    throw new Error(`posted ${after - before} entries for ${posting.length} charges`);
+  results.mix = await run(mix);
+  results.duplicates = await run(posting);
+  results.duplicatesSerial = await run(posting.slice(0, 2000), 1);
+  const afterDup = Number((await knex.raw(`select count(*) as n from journal_entries`)).rows[0].n);
+  if (afterDup !== after + mixPayments.length / 4)
+    throw new Error('duplicates or the mix posted the wrong number of entries');
+  if (statusErrors) throw new Error(`${statusErrors} answers were not 200`);
+
+  // the server's own SQL for a duplicate: the indexed lookup that finds it processed
+  const dupId = JSON.parse(posting[0]).id;
+  const dupTimes = [];
+  for (let i = 0; i < 2000; i++) {
+    const s = process.hrtime.bigint();
+    await knex.raw('select 1 from webhook_events where event_id = ? and processed_at is not null', [dupId]);
+    dupTimes.push(Number(process.hrtime.bigint() - s) / 1e6);
+  }
+  dupTimes.sort((a, b) => a - b);
+  results.duplicateSql = { p50: percentile(dupTimes, 50), p95: percentile(dupTimes, 95) };
+
+  // ---- pgbench: the same transaction ------------------------------------------------------------------
+  const acc = Object.fromEntries(
+    (await knex.raw(`select code, id from ledger_accounts where branch_id = ?`, [branch.id])).rows.map(
+      (r) => [r.code, r.id],
+    ),
+  );
+  const lit = (x) => `'${String(x).replace(/'/g, "''")}'`;
+  const B = lit(branch.id);
+  // Spread over the 40 contracts, as the events are (a contract's row is locked by the app's transaction).
+  const C = `(array[${contracts.map((c) => lit(c.id)).join(', ')}]::uuid[])[:k]`;
+  const L = `(array[${contracts.map((c) => lit(c.leadId)).join(', ')}]::uuid[])[:k]`;
+  const claim = `insert into webhook_events (event_id, type, api_version, created, payload, processed_at, outcome) values ('evt_pgbench_' || :n, 'charge.succeeded', null, now(), ${lit(posting[0])}::jsonb, now(), 'processed') on conflict (event_id) do update set attempts = webhook_events.attempts + 1, processed_at = now(), outcome = 'processed', last_error = null, received_at = now() where webhook_events.processed_at is null returning id \\gset ev_`;
+  const entry = `insert into journal_entries (branch_id, reason_code, source_kind, source_ref, idempotency_key, memo, effective_on, lead_id, contract_id, job_id, reverses_entry_id, posted_by) values (${B}, 'deposit.card', 'event', 'evt_pgbench_' || :n, 'charge:ch_pgbench_' || :n, 'Card deposit (bench)', current_date, ${L}, ${C}, null, null, null) on conflict (idempotency_key) do nothing returning id \\gset je_`;
+  const lines = `insert into journal_lines (entry_id, position, account_id, branch_id, side, amount, salesperson_id) values (':je_id', 1, ${lit(acc['1050'])}, ${B}, 'debit', 970.70, null), (':je_id', 2, ${lit(acc['5100'])}, ${B}, 'debit', 29.30, null), (':je_id', 3, ${lit(acc['2100'])}, ${B}, 'credit', 1000.00, null);`;
+  const payment = `with p as (insert into payments (contract_id, branch_id, payment_request_id, kind, method, amount, fee, net, currency, processor_payment_intent_id, processor_charge_id, processor_balance_transaction_id, card_brand, card_last4, reference, received_on, recorded_by, request_key, journal_entry_id) values (${C}, ${B}, null, 'deposit', 'card', 1000.00, 29.30, 970.70, 'usd', 'pi_pgbench_' || :n, 'ch_pgbench_' || :n, 'txn_pgbench_' || :n, 'visa', '4242', null, current_date, null, null, ':je_id') on conflict do nothing returning id, branch_id, kind, amount) insert into lead_activities (lead_id, branch_id, kind, body, data, actor_id) select ${L}, p.branch_id, 'payment', 'Deposit of $1,000.00 received by card (visa 4242).', jsonb_build_object('paymentId', p.id, 'kind', p.kind, 'amount', p.amount::text), null from p returning data ->> 'paymentId' as id;`;
+  const header = ['\\set n random(1, 9000000000000000000)', `\\set k random(1, ${contracts.length})`];
+  const inserts = [...header, 'BEGIN;', claim, entry, lines, payment, 'COMMIT;'];
+  // What the app runs besides the inserts, in its order (PaymentsRepository.contractForCharge, then
+  // LedgerService.post: key check, accounts, record checks, insert, lines, read-back).
+  const appStatements = [
+    ...header,
+    `select 1 from webhook_events where event_id = 'evt_pgbench_' || :n and processed_at is not null;`,
+    'BEGIN;',
+    claim,
+    `select c.id, c.branch_id, c.lead_id, c.salesperson_id, c.price, c.deposit_amount, c.deposit_received_at, c.cancelled_at, to_char(c.signed_on, 'YYYY-MM-DD'), o.title, l.homeowner_name, l.email, l.state, b.name, b.phone, b.timezone, exists (select 1 from jobs j where j.contract_id = c.id and j.status = 'completed'), exists (select 1 from payments p where p.processor_charge_id = 'ch_pgbench_' || :n) from contracts c join leads l on l.id = c.lead_id join branches b on b.id = c.branch_id join proposal_options o on o.id = c.option_id where c.id = ${C} limit 1 for update of c;`,
+    `select id from journal_entries where idempotency_key = 'charge:ch_pgbench_' || :n limit 1;`,
+    `select a.*, b.code as branch_code from ledger_accounts a join branches b on b.id = a.branch_id where a.branch_id = ${B} order by a.code;`,
+    `select branch_id from leads where id = ${L} limit 1;`,
+    `select branch_id from contracts where id = ${C} limit 1;`,
+    entry,
+    lines,
+    `select e.id, e.branch_id, b.code, e.reason_code, e.source_kind, e.source_ref, e.memo, to_char(e.effective_on, 'YYYY-MM-DD'), e.posted_at, e.posted_by, u.name, e.lead_id, e.contract_id, e.job_id, e.reverses_entry_id, r.id from journal_entries e join branches b on b.id = e.branch_id left join users u on u.id = e.posted_by left join journal_entries r on r.reverses_entry_id = e.id where e.id = ':je_id' limit 1;`,
+    `select l.id, l.entry_id, l.account_id, a.code, a.name, l.side, l.amount, l.salesperson_id, s.name from journal_lines l join ledger_accounts a on a.id = l.account_id left join users s on s.id = l.salesperson_id where l.entry_id in (':je_id') order by l.entry_id, l.position;`,
+    payment,
+    'COMMIT;',
+  ];
+  pgbenchDir = mkdtempSync(path.join(os.tmpdir(), 'loambook-pgbench-'));
+  const pgbench = findPgbench();
+  const bench = (name, statements) => {
+    const file = path.join(pgbenchDir, `${name}.sql`);
+    writeFileSync(file, statements.join('\n') + '\n');
+    const out = execFileSync(
+      pgbench,
+      [
+        '-n',
+        '-h',
+        pg.host,
+        '-p',
+        String(pg.port),
+        '-U',
+        pg.user,
+        '-c',
+        String(CONCURRENCY),
+        '-j',
+        '2',
+        '-T',
+        String(SECONDS),
+        '-f',
+        file,
+        DB,
+      ],
+      { env: { ...process.env, PGPASSWORD: pg.password }, encoding: 'utf8' },
+    );
+    const tps = Number(
+      /tps = ([\d.]+) \(without initial connection time\)/.exec(out)?.[1] ?? /tps = ([\d.]+)/.exec(out)?.[1],
+    );
+    const failed = Number(/number of failed transactions: (\d+)/.exec(out)?.[1] ?? '0');
+    if (!(tps > 0) || failed)
+      throw new Error(`pgbench ${name}: could not read its rate, or it failed:\n${out}`);
+    return tps;
+  };
+  results.pgbench = {
+    inserts: bench('inserts', inserts),
+    app: bench('app-statements', appStatements),
+    binary: pgbench,
+  };
+  const tps = results.pgbench.inserts;
+
+  const ratio = results.posting.rate / tps;
+  const ratioApp = results.posting.rate / results.pgbench.app;
+  console.log(
+    `\nWebhook ingestion, concurrency ${CONCURRENCY}, ${os.cpus().length} cores, load average ${os.loadavg()[0].toFixed(1)} (${posting.length} posting events; ${pgbench})`,
+  );
+  console.log(`  pgbench, the inserts only:          ${results.pgbench.inserts.toFixed(0).padStart(5)} tx/s`);
+  console.log(`  pgbench, the app's statements:      ${results.pgbench.app.toFixed(0).padStart(5)} tx/s`);
+  console.log(`  unique posting events:              ${fmt(results.posting)}`);
+  console.log(`  unique events, natural mix:         ${fmt(results.mix)}`);
+  console.log(`  duplicate events:                   ${fmt(results.duplicates)}`);
+  console.log(`  duplicate events, one at a time:    ${fmt(results.duplicatesSerial)}`);
+  console.log(
+    `  a duplicate's lookup, in SQL:       p50 ${results.duplicateSql.p50.toFixed(3)} ms  p95 ${results.duplicateSql.p95.toFixed(3)} ms`,
+  );
+  console.log(
+    `  posting events / pgbench inserts:          ${(ratio * 100).toFixed(0)}%  (target ≥ 40%)  ${ratio >= 0.4 ? 'MET' : 'NOT MET'}`,
+  );
+  console.log(
+    `  posting events / pgbench app's statements: ${(ratioApp * 100).toFixed(0)}%  (target ≥ 40%)  ${ratioApp >= 0.4 ? 'MET' : 'NOT MET'}`,
+  );
+  const dupServer = percentile(results.duplicatesSerial.server, 50);
+  const dupMs = percentile(results.duplicatesSerial.latencies, 50);
+  console.log(
+    `  duplicate, server time after the signature (p50): ${dupServer.toFixed(3)} ms  (target ≤ 1 ms)  ${dupServer <= 1 ? 'MET' : 'NOT MET'}`,
+  );
+  console.log(`  duplicate, whole request one at a time (p50):    ${dupMs.toFixed(2)} ms`);
+} finally {
+  server.stop();
+  await fake.close();
+  await knex.destroy();
+  if (pgbenchDir) rmSync(pgbenchDir, { recursive: true, force: true });
+  if (!process.env.KEEP_BENCH_DB) await dropDatabase(DB);
+}
