@@ -16,3 +16,4 @@ export * from './jobs';
 export * from './ledger';
 export * from './commissions';
 export * from './reconciliation';
+export * from './payments';

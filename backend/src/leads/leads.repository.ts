@@ -9,6 +9,7 @@ import {
   wholeDaysBetween,
   type DuplicateMatch,
   type DuplicateReason,
+  type JobStatus,
   type LeadActivity,
   type LeadFacts,
   type LeadInput,
@@ -54,6 +55,18 @@ export interface LeadRow extends LeadSummary {
   source: string | null;
   notes: string | null;
   lostReason: string | null;
+  /** The branch's IANA time zone. */
+  timezone: string;
+}
+
+/** The job of a lead's latest contract, with what the Job permission rule reads. */
+export interface LeadJobRow {
+  id: string;
+  number: string;
+  status: JobStatus;
+  branchId: string;
+  salespersonId: string | null;
+  crewLeadId: string | null;
 }
 
 const SUMMARY_COLUMNS = [
@@ -273,6 +286,7 @@ export class LeadsRepository {
         'l.source',
         'l.notes',
         'l.lost_reason as lostReason',
+        'b.timezone',
       )
       .where('l.id', id)
       .first();
@@ -291,7 +305,30 @@ export class LeadsRepository {
       source: r.source,
       notes: r.notes,
       lostReason: r.lostReason,
+      timezone: r.timezone,
     };
+  }
+
+  /** The job of the lead's latest contract (a lead has one line of contracts; the newest is the live one). */
+  async jobOf(leadId: string, db: Db = this.knex): Promise<LeadJobRow | undefined> {
+    return db('jobs as j')
+      .join('contracts as c', 'c.id', 'j.contract_id')
+      .where('j.lead_id', leadId)
+      .orderBy('c.signed_at', 'desc')
+      .orderBy('j.created_at', 'desc')
+      .first(
+        'j.id',
+        'j.number',
+        'j.status',
+        'j.branch_id as branchId',
+        'j.salesperson_id as salespersonId',
+        'j.crew_lead_id as crewLeadId',
+      );
+  }
+
+  /** The lead's stage, its row locked for the rest of the transaction (automatic moves). */
+  async lockStage(id: string, db: Db): Promise<{ stage: LeadStage; branchId: string } | undefined> {
+    return db('leads').where({ id }).forUpdate().first('stage', 'branch_id as branchId');
   }
 
   async insert(
@@ -560,6 +597,19 @@ export class LeadsRepository {
         db.raw(`exists (select 1 from jobs where lead_id = ? and status = 'completed') as "completed"`, [
           leadId,
         ]),
+        // Issue #5: a live contract whose job is completed and whose payments, less what went back, cover
+        // its price. Summed and compared in numeric (never a JavaScript number). A refund still pending
+        // counts as gone: the money is on its way back, and paid in full is the end of the line.
+        db.raw(
+          `exists (select 1 from contracts c
+             where c.lead_id = ? and c.cancelled_at is null
+               and exists (select 1 from jobs j where j.contract_id = c.id and j.status = 'completed')
+               and coalesce((select sum(p.amount) from payments p where p.contract_id = c.id), 0)
+                 - coalesce((select sum(r.amount) from refunds r
+                               where r.contract_id = c.id and r.status <> 'failed'), 0)
+                 >= c.price) as "paid"`,
+          [leadId],
+        ),
       )
       .first();
     return {
@@ -573,6 +623,7 @@ export class LeadsRepository {
       jobScheduled: r.scheduled,
       jobStarted: r.started,
       jobCompleted: r.completed,
+      paidInFull: r.paid,
     };
   }
 

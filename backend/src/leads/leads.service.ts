@@ -11,6 +11,7 @@ import {
   type DuplicateCheckResponse,
   type LeadDetail,
   type LeadInput,
+  type LeadJobLink,
   type LeadStage,
   type PipelineResponse,
   type StageMove,
@@ -99,10 +100,11 @@ export class LeadsService {
 
   async get(user: SessionUser, id: string, db: Db = this.knex): Promise<LeadDetail> {
     const { row, readOnly } = await this.readable(user, id, db);
-    const [activities, transfers, facts] = await Promise.all([
+    const [activities, transfers, facts, job] = await Promise.all([
       this.repo.activities(id, db),
       this.repo.transfers(id, db),
       this.repo.facts(id, db),
+      readOnly ? undefined : this.repo.jobOf(id, db),
     ]);
     const moves: StageMove[] = readOnly
       ? []
@@ -112,7 +114,20 @@ export class LeadsService {
             ? { to, allowed: true }
             : { to, allowed: false, code: check.code, message: check.message };
         });
-    return { ...row, activities, transfers, moves, readOnly };
+    // The job only for whom its own rule lets open it (a salesperson their own, a crew lead their crew's).
+    const jobLink: LeadJobLink | null =
+      job &&
+      user.ability.can(
+        'read',
+        asSubject('Job', {
+          branchId: job.branchId,
+          salespersonId: job.salespersonId,
+          crewLeadId: job.crewLeadId,
+        }),
+      )
+        ? { id: job.id, number: job.number, status: job.status }
+        : null;
+    return { ...row, activities, transfers, moves, readOnly, job: jobLink };
   }
 
   async create(user: SessionUser, input: LeadInput): Promise<CreateLeadResponse> {
@@ -248,6 +263,24 @@ export class LeadsService {
       );
       return this.get(user, id, trx);
     });
+  }
+
+  /**
+   * The last step of the main line, the money's (issue #5): completed → paid in full, once the live
+   * contract's job is completed and its payments less refunds cover its price (LeadsRepository.facts).
+   * Called after a payment is recorded and at completion, inside their transaction; does nothing in any
+   * other stage or while the facts do not allow it. Returns whether the lead moved.
+   */
+  async settleIfPaid(leadId: string, actorId: string | null, trx: Knex.Transaction): Promise<boolean> {
+    const lead = await this.repo.lockStage(leadId, trx);
+    if (!lead || lead.stage !== 'completed') return false;
+    const facts = await this.repo.facts(leadId, trx);
+    if (!checkTransition('completed', 'paid_in_full', facts).ok) return false;
+    await this.moveStage(
+      { leadId, branchId: lead.branchId, from: 'completed', to: 'paid_in_full', reason: null, actorId },
+      trx,
+    );
+    return true;
   }
 
   /** Records a stage change and its timeline row; used by the other features for their automatic moves. */

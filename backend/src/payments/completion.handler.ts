@@ -1,10 +1,10 @@
 import { Injectable, Logger } from '@nestjs/common';
 import type { Knex } from 'knex';
-import { jobCompleted, money, MoneyDecimal, todayInZone } from '@loambook/common';
+import { contractBalance, jobCompleted, money, MoneyDecimal, todayInZone } from '@loambook/common';
 import type { JobCompletedEvent, JobCompletedHandler } from '../field/job-completed';
 import { DomainError } from '../common/domain-error';
+import { LeadsService } from '../leads/leads.service';
 import { LedgerService } from '../ledger/ledger.service';
-import { contractBalance } from './payment-rules';
 import { PaymentsRepository } from './payments.repository';
 import { PaymentsService } from './payments.service';
 
@@ -13,7 +13,8 @@ import { PaymentsService } from './payments.service';
  * contract price becomes revenue (ASC 606, for a short job at completion), the deposits held stop being
  * owed, the rest is receivable — customer deposits + accounts receivable / contract revenue — posted once
  * per job (key `job.completed:<job id>`). Then the balance is invoiced: a payment link e-mailed to the
- * homeowner once the completion commits.
+ * homeowner once the completion commits. A contract paid in full before completion moves its lead on to
+ * paid in full here (the completion has just moved it to completed).
  *
  * Deposits above the price (rare: an overpayment) are left as customer deposits, still owed back.
  * The balance link needs the processor: when it is not configured or refuses, the completion still stands
@@ -27,6 +28,7 @@ export class PaymentsCompletionHandler implements JobCompletedHandler {
     private readonly repo: PaymentsRepository,
     private readonly ledger: LedgerService,
     private readonly payments: PaymentsService,
+    private readonly leads: LeadsService,
   ) {}
 
   async onJobCompleted(e: JobCompletedEvent, trx: Knex.Transaction): Promise<void> {
@@ -47,6 +49,8 @@ export class PaymentsCompletionHandler implements JobCompletedHandler {
       },
       trx,
     );
+    // Everything was paid before the work was done (cash up front, say): the lead goes on to paid in full.
+    await this.leads.settleIfPaid(c.leadId, null, trx);
     // Told again about the same job (a retried completion): the balance was invoiced the first time.
     if (!created || !money(b.balanceDue).greaterThan(0)) return;
     try {

@@ -10,7 +10,7 @@ import type {
   PaymentRequestView,
   PaymentView,
   RefundView,
-} from './payment-views';
+} from '@loambook/common';
 import { PaymentsService } from './payments.service';
 
 @ApiTags('payments')

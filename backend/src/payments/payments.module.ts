@@ -1,5 +1,6 @@
 import { Module } from '@nestjs/common';
 import { JobsModule } from '../jobs/jobs.module';
+import { LeadsModule } from '../leads/leads.module';
 import { LedgerModule } from '../ledger/ledger.module';
 import { SigningModule } from '../signing/signing.module';
 import { PaymentsCompletionHandler } from './completion.handler';
@@ -17,7 +18,7 @@ import { WebhooksService } from './webhooks.service';
  * Exports the completion handler for FieldModule's JOB_COMPLETED_HANDLERS.
  */
 @Module({
-  imports: [LedgerModule, SigningModule, JobsModule],
+  imports: [LedgerModule, SigningModule, JobsModule, LeadsModule],
   controllers: [PaymentsController, WebhookController],
   providers: [
     stripeProvider,

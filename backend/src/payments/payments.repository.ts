@@ -10,7 +10,7 @@ import type {
   PaymentRequestView,
   PaymentView,
   RefundView,
-} from './payment-views';
+} from '@loambook/common';
 
 /** A contract as the payments feature needs it: its money, its homeowner and its branch. */
 export interface PayableContract {

@@ -7,12 +7,28 @@ import {
   balancePaidToBank,
   BANK_METHOD_LABELS,
   branchScope,
+  contractBalance,
   depositReceivedToBank,
+  depositWarning,
   formatUsd,
+  linkAmount,
   money,
   MoneyDecimal,
+  sdkMinorUnits,
   todayInZone,
   weekdayDate,
+  type CheckoutStatus,
+  type ContractPayments,
+  type CreatePaymentLinkRequest,
+  type DepositWarning,
+  type PaymentKind,
+  type PaymentLinkResult,
+  type PaymentList,
+  type PaymentRequestView,
+  type PaymentView,
+  type RecordPaymentRequest,
+  type RefundRequest,
+  type RefundView,
 } from '@loambook/common';
 import { APP_CONFIG, type AppConfig } from '../config/config';
 import { KNEX } from '../database/database.module';
@@ -23,21 +39,6 @@ import { LedgerService } from '../ledger/ledger.service';
 import { MailService } from '../mail/mail.service';
 import { Clock } from '../signing/clock';
 import { paymentLinkMail } from './payment-mails';
-import { contractBalance, depositWarning, linkAmount, sdkMinorUnits } from './payment-rules';
-import type {
-  CheckoutStatus,
-  ContractPayments,
-  CreatePaymentLinkRequest,
-  DepositWarning,
-  PaymentKind,
-  PaymentLinkResult,
-  PaymentList,
-  PaymentRequestView,
-  PaymentView,
-  RecordPaymentRequest,
-  RefundRequest,
-  RefundView,
-} from './payment-views';
 import { PaymentsRepository, type PayableContract, type PaymentListFilter } from './payments.repository';
 import { ProcessorPostings } from './processor-postings.service';
 import { STRIPE } from './stripe.provider';

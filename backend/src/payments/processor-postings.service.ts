@@ -3,8 +3,10 @@ import type Stripe from 'stripe';
 import {
   ACCOUNTS,
   balancePaidByCard,
+  contractBalance,
   depositCapturedByCard,
   formatUsd,
+  fromMinorUnits,
   money,
   MoneyDecimal,
   processorPayout,
@@ -12,13 +14,13 @@ import {
   refundOfRevenue,
   todayInZone,
   type Money,
+  type PaymentKind,
   type Posting,
 } from '@loambook/common';
 import type { Knex } from 'knex';
 import { LedgerService, type PostSource } from '../ledger/ledger.service';
 import { JobsService } from '../jobs/jobs.service';
-import { contractBalance, fromMinorUnits } from './payment-rules';
-import type { PaymentKind } from './payment-views';
+import { LeadsService } from '../leads/leads.service';
 import { PaymentsRepository, type NewPayoutItem, type PayableContract } from './payments.repository';
 import { STRIPE } from './stripe.provider';
 
@@ -58,6 +60,7 @@ export class ProcessorPostings {
     private readonly repo: PaymentsRepository,
     private readonly ledger: LedgerService,
     private readonly jobs: JobsService,
+    private readonly leads: LeadsService,
     @Inject(STRIPE) private readonly stripe: Stripe | null,
   ) {}
 
@@ -199,8 +202,11 @@ export class ProcessorPostings {
   }
 
   /**
-   * What follows a deposit: once the deposits cover the contract's deposit, the contract's
-   * deposit_received_at is set and the lead moves along. The contract row is locked by the caller.
+   * What follows a payment. A deposit: once the deposits cover the contract's deposit, the contract's
+   * deposit_received_at is set and the lead moves along. A balance payment (or any payment once the job
+   * is completed): the lead moves along, and on to paid in full when the payments less refunds now cover
+   * the price (LeadsService.settleIfPaid; JobsService.advanceLead stops at completed). The contract row is
+   * locked by the caller.
    */
   async afterPayment(
     contract: PayableContract,
@@ -209,12 +215,19 @@ export class ProcessorPostings {
     actorId: string | null,
     trx: Knex.Transaction,
   ): Promise<void> {
-    if (kind !== 'deposit' || contract.depositReceivedAt || contract.cancelledAt) return;
-    const m = await this.repo.movements(contract.id, trx);
-    const held = money(contractBalance(contract.price, m).depositHeld);
-    if (held.lessThan(money(contract.depositAmount))) return;
-    if (await this.repo.setDepositReceived(contract.id, paidAt, trx)) {
+    if (contract.cancelledAt) return;
+    if (kind === 'deposit' && !contract.depositReceivedAt) {
+      const m = await this.repo.movements(contract.id, trx);
+      const held = money(contractBalance(contract.price, m).depositHeld);
+      if (!held.lessThan(money(contract.depositAmount))) {
+        if (await this.repo.setDepositReceived(contract.id, paidAt, trx)) {
+          await this.jobs.advanceLead(contract.leadId, actorId, trx);
+        }
+      }
+    }
+    if (kind === 'balance' || contract.jobCompleted) {
       await this.jobs.advanceLead(contract.leadId, actorId, trx);
+      await this.leads.settleIfPaid(contract.leadId, actorId, trx);
     }
   }
 

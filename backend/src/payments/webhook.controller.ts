@@ -2,7 +2,7 @@ import { Controller, Get, Headers, HttpCode, Param, Post, Req, Res } from '@nest
 import { ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import { Public } from '../common/decorators';
-import type { CheckoutStatus } from './payment-views';
+import type { CheckoutStatus } from '@loambook/common';
 import { PaymentsService } from './payments.service';
 import { WebhooksService } from './webhooks.service';
 

@@ -1,6 +1,7 @@
 import type { FoundationType, PreferredContact } from '../leads/lead-fields';
 import type { DuplicateReason } from '../leads/duplicates';
 import type { LeadStage } from '../leads/pipeline';
+import type { JobStatus } from '../jobs/api-types';
 
 export interface LeadInput {
   branchId: string;
@@ -109,6 +110,20 @@ export interface LeadDetail extends LeadSummary, Omit<LeadInput, 'branchId' | 's
   moves: StageMove[];
   /** True for a manager looking at a lead their branch transferred away. */
   readOnly: boolean;
+  /**
+   * The IANA time zone of the lead's branch ('America/New_York'): the screens show the lead's times on the
+   * branch's clock. Always sent by the server; optional only so that older fixtures still compile.
+   */
+  timezone?: string;
+  /** The field job of the lead's latest contract, when there is one and the person may open it. */
+  job?: LeadJobLink | null;
+}
+
+/** Enough of a lead's job to link to it from the lead page. */
+export interface LeadJobLink {
+  id: string;
+  number: string;
+  status: JobStatus;
 }
 
 export interface CreateLeadResponse {

@@ -11,7 +11,7 @@ import {
   type RecordedMethod,
   type RecordPaymentRequest,
   type RefundRequest,
-} from '../payment-views';
+} from '@loambook/common';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 /** Dollars with at most two decimals, as text: "1500", "1500.5", "1500.50". */

@@ -96,3 +96,60 @@ export const ACTIVITY_KINDS: Record<string, { icon: string; label: string }> = {
 export function activityKind(kind: string): { icon: string; label: string } {
   return ACTIVITY_KINDS[kind] ?? { icon: 'pi-circle', label: kind };
 }
+
+const zonedFormats = new Map<string, Intl.DateTimeFormat>();
+
+/** One formatter per zone and shape (building an Intl.DateTimeFormat is slow; a timeline has many rows). */
+function zoned(timeZone: string | undefined, withYear: boolean): Intl.DateTimeFormat {
+  const key = `${timeZone ?? ''}|${withYear}`;
+  let f = zonedFormats.get(key);
+  if (!f) {
+    const options: Intl.DateTimeFormatOptions = {
+      month: 'short',
+      day: 'numeric',
+      ...(withYear ? { year: 'numeric' } : {}),
+      hour: 'numeric',
+      minute: '2-digit',
+      timeZoneName: 'short',
+    };
+    try {
+      f = new Intl.DateTimeFormat('en-US', { ...options, timeZone });
+    } catch {
+      // A zone this browser does not know: its own zone, still named, rather than nothing.
+      f = new Intl.DateTimeFormat('en-US', options);
+    }
+    zonedFormats.set(key, f);
+  }
+  return f;
+}
+
+/**
+ * An instant on the branch's clock, with the zone's abbreviation: "Mar 4, 2026, 9:15 AM CST". Without a
+ * zone (an older answer), the browser's own, still named.
+ */
+export function formatInBranchZone(
+  iso: string | null | undefined,
+  timeZone: string | undefined,
+  fallback = '—',
+): string {
+  if (!iso) return fallback;
+  const ms = Date.parse(iso);
+  return Number.isNaN(ms) ? fallback : zoned(timeZone, true).format(ms);
+}
+
+/** Like formatInBranchZone, without the year when it is the branch's current year: "Mar 4, 9:15 AM CST". */
+export function formatRecentInBranchZone(
+  iso: string | null | undefined,
+  timeZone: string | undefined,
+  now: Date = new Date(),
+  fallback = '—',
+): string {
+  if (!iso) return fallback;
+  const ms = Date.parse(iso);
+  if (Number.isNaN(ms)) return fallback;
+  const year = (d: number | Date) =>
+    zoned(timeZone, true)
+      .formatToParts(d)
+      .find((p) => p.type === 'year')?.value;
+  return zoned(timeZone, year(ms) !== year(now)).format(ms);
+}

@@ -1,5 +1,10 @@
-import { formatUsd } from '@loambook/common';
-import type { PaymentKind, PaymentMethod, PaymentRequestStatus, PaymentView } from './api/types';
+import {
+  formatUsd,
+  type PaymentKind,
+  type PaymentMethod,
+  type PaymentRequestStatus,
+  type PaymentView,
+} from '@loambook/common';
 
 export const KIND_LABELS: Record<PaymentKind, string> = { deposit: 'Deposit', balance: 'Balance' };
 

@@ -1,9 +1,11 @@
 import type { LeadActivity } from '@loambook/common';
-import { formatDateTime, formatRecent } from '@/lib/format';
-import { activityKind } from '../lead-format';
+import { activityKind, formatInBranchZone, formatRecentInBranchZone } from '../lead-format';
 
-/** What happened with the lead, newest first, each with who and when. */
-export function LeadTimeline({ activities }: { activities: LeadActivity[] }) {
+/**
+ * What happened with the lead, newest first, each with who and when — on the branch's clock (`timeZone`,
+ * the lead's branch), with the zone's abbreviation, like the inspections, whatever zone the browser is in.
+ */
+export function LeadTimeline({ activities, timeZone }: { activities: LeadActivity[]; timeZone?: string }) {
   if (activities.length === 0) return <p className="muted">Nothing on the timeline yet.</p>;
   return (
     <ol className="timeline">
@@ -20,8 +22,8 @@ export function LeadTimeline({ activities }: { activities: LeadActivity[] }) {
                 <span aria-hidden="true"> · </span>
                 <span>{a.actorName ?? 'Loambook'}</span>
                 <span aria-hidden="true"> · </span>
-                <time dateTime={a.createdAt} title={formatDateTime(a.createdAt)}>
-                  {formatRecent(a.createdAt)}
+                <time dateTime={a.createdAt} title={formatInBranchZone(a.createdAt, timeZone)}>
+                  {formatRecentInBranchZone(a.createdAt, timeZone)}
                 </time>
                 {a.branchCode ? <span className="muted"> · {a.branchCode}</span> : null}
               </p>

@@ -4,17 +4,19 @@ import { Link, useParams } from 'react-router';
 import { Button } from 'primereact/button';
 import { Card } from 'primereact/card';
 import { Message } from 'primereact/message';
-import { asSubject, FOUNDATION_TYPE_LABELS, type LeadDetail } from '@loambook/common';
+import { asSubject, FOUNDATION_TYPE_LABELS, type LeadDetail, type LeadJobLink } from '@loambook/common';
 import { paths } from '@/app/paths';
 import { NotFound } from '@/app/routes/not-found';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { PageLoading } from '@/components/loading';
 import { useNotify } from '@/components/notify';
 import { isApiError } from '@/lib/api-client';
-import { formatDate, formatDateTime } from '@/lib/format';
+import { formatDate } from '@/lib/format';
 import { useAppAbility } from '@/features/auth/ability';
 import { useCurrentUser } from '@/features/auth/auth-provider';
+import { LeadCommissionSplits } from '@/features/commissions/components/contract-splits-editor';
 import { LeadInspections } from '@/features/inspections/components/lead-inspections';
+import { STATUS_LABELS as JOB_STATUS_LABELS } from '@/features/jobs/job-format';
 import { LeadProposals } from '@/features/proposals/components/lead-proposals';
 import { useLeadContract } from '@/features/proposals/api/get-lead-contract';
 import { RecordCancellationDialog } from '@/features/signing/components/record-cancellation-dialog';
@@ -26,7 +28,7 @@ import { LeadTimeline } from '../components/lead-timeline';
 import { LogActivityForm } from '../components/log-activity-form';
 import { MarkLostDialog } from '../components/mark-lost-dialog';
 import { TransferDialog } from '../components/transfer-dialog';
-import { withWeekday } from '../lead-format';
+import { formatInBranchZone, withWeekday } from '../lead-format';
 
 export default function LeadRoute() {
   const { leadId = '' } = useParams();
@@ -172,13 +174,17 @@ function LeadPage({ lead }: { lead: LeadDetail }) {
               </Card>
               <Card className="content-card">
                 <section className="lead-section" aria-labelledby="lead-proposals-title">
-                  <h2 id="lead-proposals-title" className="lead-section__title">
-                    Proposals
-                  </h2>
+                  <div className="lead-section__head">
+                    <h2 id="lead-proposals-title" className="lead-section__title">
+                      Proposals
+                    </h2>
+                    {lead.job ? <JobLink job={lead.job} /> : null}
+                  </div>
                   <LeadProposals leadId={lead.id} />
                 </section>
               </Card>
               <LeadPaymentsCard lead={lead} />
+              <LeadCommissionSplits leadId={lead.id} />
             </>
           )}
           <Card className="content-card">
@@ -188,7 +194,7 @@ function LeadPage({ lead }: { lead: LeadDetail }) {
                 Timeline
               </h2>
               {canUpdate ? <LogActivityForm leadId={lead.id} /> : null}
-              <LeadTimeline activities={lead.activities} />
+              <LeadTimeline activities={lead.activities} timeZone={lead.timezone} />
             </section>
           </Card>
         </div>
@@ -235,7 +241,7 @@ function LeadPage({ lead }: { lead: LeadDetail }) {
                         {t.fromBranchCode} → {t.toBranchCode}
                       </span>{' '}
                       <span className="muted">
-                        {formatDateTime(t.createdAt)} · {t.transferredByName}
+                        {formatInBranchZone(t.createdAt, lead.timezone)} · {t.transferredByName}
                       </span>
                       {t.note ? <p className="transfer-list__note">{t.note}</p> : null}
                     </li>
@@ -256,7 +262,7 @@ function LeadPage({ lead }: { lead: LeadDetail }) {
             setOpen(null);
             notify.success(
               'Cancellation recorded',
-              `${c.homeownerName}’s contract is cancelled; the refund is due within 10 business days.`,
+              `${c.homeownerName}’s contract is cancelled; any payment received is due back within 10 business days.`,
             );
           }}
         />
@@ -313,7 +319,22 @@ function LeadPaymentsCard({ lead }: { lead: LeadDetail }) {
   }
   return (
     <Card className="content-card lead-payments-card">
-      <LeadPayments leadId={lead.id} homeownerName={lead.homeownerName} homeownerEmail={lead.email ?? null} />
+      <LeadPayments
+        leadId={lead.id}
+        homeownerName={lead.homeownerName}
+        homeownerEmail={lead.email ?? null}
+        timeZone={lead.timezone}
+      />
     </Card>
+  );
+}
+
+/** The lead's field job, beside its contract: its number and where it stands, one click from the job page. */
+function JobLink({ job }: { job: LeadJobLink }) {
+  return (
+    <Link to={paths.job.href(job.id)} className="lead-job-link">
+      <i className="pi pi-wrench" aria-hidden="true" /> Job {job.number}
+      <span className="muted"> · {JOB_STATUS_LABELS[job.status]}</span>
+    </Link>
   );
 }

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { CreatePaymentLinkRequest, PaymentLinkResult } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { CreatePaymentLinkRequest, PaymentLinkResult } from './types';
 
 /** A card payment link (the processor's hosted page) for the deposit or the balance, e-mailed to the homeowner. */
 export function createPaymentLink({

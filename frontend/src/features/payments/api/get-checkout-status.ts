@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { CheckoutStatus } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { CheckoutStatus } from './types';
 
 /** Public: whether the payment behind a checkout session has been recorded (the thank-you page). */
 export function getCheckoutStatus(sessionId: string, signal?: AbortSignal): Promise<CheckoutStatus> {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { ContractPayments } from '@loambook/common';
 import { api, isApiError } from '@/lib/api-client';
-import type { ContractPayments } from './types';
 
 /** A contract's payment links, payments, refunds and balance; null when the person may not see them (404). */
 export async function getContractPayments(

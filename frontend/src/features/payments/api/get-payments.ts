@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { PaymentKind, PaymentList, PaymentMethod } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { PaymentKind, PaymentList, PaymentMethod } from './types';
 
 export const PAYMENT_PAGE_SIZES = [10, 25, 50, 100] as const;
 export type PaymentPageSize = (typeof PAYMENT_PAGE_SIZES)[number];

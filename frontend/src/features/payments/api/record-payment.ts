@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { PaymentView, RecordPaymentRequest } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { PaymentView, RecordPaymentRequest } from './types';
 
 /** The bookkeeper records cash, a cheque or a transfer (posted to the bank). The request id makes a retry safe. */
 export function recordPayment({

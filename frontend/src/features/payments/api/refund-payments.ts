@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { RefundRequest, RefundView } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { RefundRequest, RefundView } from './types';
 
 /** Gives a cancelled contract's card payments back through the processor. */
 export function refundPayments({

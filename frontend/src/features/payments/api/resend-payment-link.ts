@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { PaymentRequestView } from '@loambook/common';
 import { api } from '@/lib/api-client';
-import type { PaymentRequestView } from './types';
 
 /** E-mails an open link to the homeowner again. */
 export function resendPaymentLink(requestId: string): Promise<PaymentRequestView> {

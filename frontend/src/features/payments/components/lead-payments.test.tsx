@@ -1,11 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { defineRulesFor, type AuthUser, type ContractView, type LeadDetail } from '@loambook/common';
+import {
+  defineRulesFor,
+  type AuthUser,
+  type ContractPayments,
+  type ContractView,
+  type LeadDetail,
+} from '@loambook/common';
 import { routes } from '@/app/router';
 import { errorBody, fakeApi, type FakeRequest } from '@/testing/fake-api';
 import { BRANCH_IDS, makeBranch, makeUser, renderApp, signInAs } from '@/testing/render';
-import type { ContractPayments } from '../api/types';
 
 const LEAD_ID = '55555555-5555-4555-8555-555555555555';
 const CONTRACT_ID = '66666666-6666-4666-8666-666666666666';
@@ -45,6 +50,7 @@ const lead: LeadDetail = {
   transfers: [],
   moves: [],
   readOnly: false,
+  timezone: 'America/Chicago',
 };
 
 const contract: ContractView = {
@@ -78,6 +84,9 @@ const contract: ContractView = {
   canCancel: false,
   createdAt: '2026-11-10T18:29:00.000Z',
 };
+
+/** The warning of a cancelled contract that still holds the homeowner's money (16 CFR 429; FTC guidance). */
+const DUE_BACK = 'every payment made under it is due back within 10 business days';
 
 const LINK_URL = 'http://127.0.0.1:12111/pay/cs_test_a1b2c3';
 
@@ -175,6 +184,9 @@ describe('the payments panel on the lead page', () => {
     expect(p).toHaveTextContent('F.S. 489.126(2)(a)');
     expect(p).toHaveTextContent('Apply for the permits');
     expect(within(p).getByText('Waiting for payment')).toBeInTheDocument();
+    // the link's times on the branch's clock (15:00Z is 9:00 AM CST, UTC−6 in winter)
+    expect(p).toHaveTextContent(/Made Dec 2, 2026, 9:00\sAM CST/);
+    expect(p).toHaveTextContent(/works until Dec 3, 2026, 9:00\sAM CST/);
     // the salesperson asks for money but does not record it
     expect(within(p).getByRole('button', { name: 'Request balance' })).toBeInTheDocument();
     expect(within(p).queryByRole('button', { name: 'Record a payment' })).not.toBeInTheDocument();
@@ -329,6 +341,7 @@ describe('the payments panel on the lead page', () => {
     );
     const p = await panel();
     expect(p).toHaveTextContent('Visa •••• 4242');
+    expect(p).toHaveTextContent(DUE_BACK);
     expect(within(p).queryByRole('button', { name: 'Record a payment' })).not.toBeInTheDocument();
     await userEvent.click(within(p).getByRole('button', { name: 'Refund' }));
     const dialog = await screen.findByRole('dialog', { name: 'Refund to the card' });
@@ -341,6 +354,29 @@ describe('the payments panel on the lead page', () => {
     await waitFor(() => expect(bodies).toHaveLength(1));
     expect(bodies[0]).toMatchObject({ amount: '1000.00' });
     expect(await screen.findByText('Refund made')).toBeInTheDocument();
+  });
+
+  it.each([
+    ['nothing was ever received', '0.00', '0.00', 'nothing is owed back'],
+    ['everything received was refunded', '0.00', '1000.00', 'has been refunded'],
+  ])('on a cancelled contract where %s, warns of no refund due', async (_, paid, refunded, says) => {
+    renderLead(
+      bookkeeper,
+      payments({
+        cancelled: true,
+        paid,
+        refunded,
+        depositHeld: paid,
+        balanceDue: '0.00',
+        refundable: '0.00',
+        requests: [],
+        depositWarning: null,
+      }),
+    );
+    const p = await panel();
+    expect(p).toHaveTextContent(says);
+    expect(p).not.toHaveTextContent(DUE_BACK);
+    expect(within(p).queryByRole('button', { name: 'Refund' })).not.toBeInTheDocument();
   });
 
   it('shows nothing when the person may not see the contract’s money', async () => {

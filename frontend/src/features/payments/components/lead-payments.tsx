@@ -4,16 +4,22 @@ import { Button } from 'primereact/button';
 import { InputText } from 'primereact/inputtext';
 import { Message } from 'primereact/message';
 import { Tag } from 'primereact/tag';
-import { asSubject, money } from '@loambook/common';
+import {
+  asSubject,
+  money,
+  refundOwed,
+  type ContractPayments,
+  type PaymentKind,
+  type PaymentRequestView,
+} from '@loambook/common';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { useNotify } from '@/components/notify';
-import { formatDateTime } from '@/lib/format';
 import { useAppAbility } from '@/features/auth/ability';
+import { formatInBranchZone } from '@/features/leads/lead-format';
 import { formatDay } from '@/features/ledger/ledger-format';
 import { useLeadContract } from '@/features/proposals/api/get-lead-contract';
 import { useContractPayments } from '../api/get-contract-payments';
 import { useResendPaymentLink } from '../api/resend-payment-link';
-import type { ContractPayments, PaymentKind, PaymentRequestView } from '../api/types';
 import { KIND_LABELS, methodText, REQUEST_STATUS, usd } from '../payments-format';
 import { PaymentLinkDialog } from './payment-link-dialog';
 import { RecordPaymentDialog } from './record-payment-dialog';
@@ -23,6 +29,8 @@ interface LeadPaymentsProps {
   leadId: string;
   homeownerName: string;
   homeownerEmail: string | null;
+  /** The branch's IANA zone: the links' times are shown on its clock. */
+  timeZone?: string;
 }
 
 /**
@@ -30,7 +38,7 @@ interface LeadPaymentsProps {
  * (to copy or e-mail again); the payments and refunds; and, for the bookkeeper, recording cash or cheques
  * and refunding a cancelled contract. Shows nothing until there is a contract the person may see.
  */
-export function LeadPayments({ leadId, homeownerName, homeownerEmail }: LeadPaymentsProps) {
+export function LeadPayments({ leadId, homeownerName, homeownerEmail, timeZone }: LeadPaymentsProps) {
   const contract = useLeadContract(leadId);
   const payments = useContractPayments(contract.data?.id ?? null);
   if (!contract.data || payments.data === null) return null;
@@ -51,6 +59,7 @@ export function LeadPayments({ leadId, homeownerName, homeownerEmail }: LeadPaym
       salespersonId={contract.data.salespersonId}
       homeownerName={homeownerName}
       homeownerEmail={homeownerEmail}
+      timeZone={timeZone}
     />
   );
 }
@@ -62,11 +71,13 @@ function PaymentsPanel({
   salespersonId,
   homeownerName,
   homeownerEmail,
+  timeZone,
 }: {
   payments: ContractPayments;
   salespersonId: string | null;
   homeownerName: string;
   homeownerEmail: string | null;
+  timeZone?: string;
 }) {
   const ability = useAppAbility();
   const notify = useNotify();
@@ -79,6 +90,7 @@ function PaymentsPanel({
   const due = money(p.balanceDue).greaterThan(0);
   const depositOutstanding =
     money(p.depositHeld).lessThan(p.depositAmount) || money(p.depositAmount).isZero();
+  const when = (iso: string) => formatInBranchZone(iso, timeZone);
   const hasOpen = (kind: PaymentKind) => p.requests.some((r) => r.kind === kind && r.status === 'open');
 
   const copy = async (r: PaymentRequestView) => {
@@ -159,12 +171,18 @@ function PaymentsPanel({
         </div>
       </dl>
 
-      {p.cancelled ? (
+      {refundOwed(p) ? (
         <Message
           severity="warn"
           className="w-full"
           text="The contract was cancelled: every payment made under it is due back within 10 business days (FTC guidance)."
         />
+      ) : p.cancelled ? (
+        <p className="muted">
+          {money(p.refunded).greaterThan(0)
+            ? 'The contract was cancelled and everything received under it has been refunded.'
+            : 'The contract was cancelled before anything was received: nothing is owed back.'}
+        </p>
       ) : null}
       {p.depositWarning && !p.depositReceivedAt && !p.cancelled ? (
         <Message
@@ -203,12 +221,12 @@ function PaymentsPanel({
                   <Tag value={REQUEST_STATUS[r.status].label} severity={REQUEST_STATUS[r.status].severity} />
                 </div>
                 <p className="muted payments-link__meta">
-                  Made {formatDateTime(r.createdAt)}
+                  Made {when(r.createdAt)}
                   {r.emailedTo
                     ? ` · e-mailed to ${r.emailedTo}${r.emailCount > 1 ? ` (${r.emailCount} times)` : ''}`
                     : ' · not e-mailed'}
-                  {r.paidAt ? ` · paid ${formatDateTime(r.paidAt)}` : ''}
-                  {r.status === 'open' && r.expiresAt ? ` · works until ${formatDateTime(r.expiresAt)}` : ''}
+                  {r.paidAt ? ` · paid ${when(r.paidAt)}` : ''}
+                  {r.status === 'open' && r.expiresAt ? ` · works until ${when(r.expiresAt)}` : ''}
                 </p>
                 {r.status === 'open' && r.url ? (
                   <div className="payments-link__url">

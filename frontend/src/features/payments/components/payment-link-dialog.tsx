@@ -3,13 +3,12 @@ import type { FormEvent } from 'react';
 import { Button } from 'primereact/button';
 import { Dialog } from 'primereact/dialog';
 import { InputText } from 'primereact/inputtext';
-import { money } from '@loambook/common';
+import { money, type ContractPayments, type PaymentKind, type PaymentLinkResult } from '@loambook/common';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { FormField } from '@/components/form-field';
 import { isApiError } from '@/lib/api-client';
 import { serverFormErrors } from '@/lib/form-errors';
 import { useCreatePaymentLink } from '../api/create-payment-link';
-import type { ContractPayments, PaymentKind, PaymentLinkResult } from '../api/types';
 import { AMOUNT_PATTERN, cleanAmount, KIND_LABELS, usd } from '../payments-format';
 
 interface PaymentLinkDialogProps {

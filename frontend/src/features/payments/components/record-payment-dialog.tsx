@@ -3,20 +3,20 @@ import type { FormEvent } from 'react';
 import { Button } from 'primereact/button';
 import { Dialog } from 'primereact/dialog';
 import { InputText } from 'primereact/inputtext';
-import { money } from '@loambook/common';
+import {
+  money,
+  RECORDED_METHODS,
+  type ContractPayments,
+  type PaymentKind,
+  type PaymentView,
+  type RecordedMethod,
+} from '@loambook/common';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { FormField } from '@/components/form-field';
 import { Select } from '@/components/select';
 import { serverFormErrors } from '@/lib/form-errors';
 import { formatDay } from '@/features/ledger/ledger-format';
 import { useRecordPayment } from '../api/record-payment';
-import {
-  RECORDED_METHODS,
-  type ContractPayments,
-  type PaymentKind,
-  type PaymentView,
-  type RecordedMethod,
-} from '../api/types';
 import { AMOUNT_PATTERN, cleanAmount, KIND_LABELS, localToday, METHOD_LABELS, usd } from '../payments-format';
 
 interface RecordPaymentDialogProps {

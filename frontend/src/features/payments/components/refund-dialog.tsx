@@ -5,12 +5,11 @@ import { Checkbox } from 'primereact/checkbox';
 import { Dialog } from 'primereact/dialog';
 import { InputText } from 'primereact/inputtext';
 import { InputTextarea } from 'primereact/inputtextarea';
-import { money } from '@loambook/common';
+import { money, type ContractPayments, type RefundView } from '@loambook/common';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { FormField } from '@/components/form-field';
 import { serverFormErrors } from '@/lib/form-errors';
 import { useRefundPayments } from '../api/refund-payments';
-import type { ContractPayments, RefundView } from '../api/types';
 import { AMOUNT_PATTERN, cleanAmount, usd } from '../payments-format';
 
 interface RefundDialogProps {

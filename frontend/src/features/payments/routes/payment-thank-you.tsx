@@ -2,10 +2,10 @@ import '../payments.css';
 import '@/features/signing/signing.css';
 import type { ReactNode } from 'react';
 import { useSearchParams } from 'react-router';
+import type { CheckoutStatus } from '@loambook/common';
 import { PageLoading } from '@/components/loading';
 import { isApiError } from '@/lib/api-client';
 import { useCheckoutStatus } from '../api/get-checkout-status';
-import type { CheckoutStatus } from '../api/types';
 import { usd } from '../payments-format';
 
 /**

@@ -1,11 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { screen, waitFor, within } from '@testing-library/react';
 import userEventBase from '@testing-library/user-event';
-import { defineRulesFor, type AuthUser } from '@loambook/common';
+import { defineRulesFor, type AuthUser, type PaymentList } from '@loambook/common';
 import { routes } from '@/app/router';
 import { fakeApi } from '@/testing/fake-api';
 import { BRANCH_IDS, makeBranch, makeUser, renderApp, signInAs } from '@/testing/render';
-import type { PaymentList } from '../api/types';
 
 // PrimeReact's Dropdown keeps its focus input under pointer-events: none; the click reaches it as in a browser.
 const userEvent = userEventBase.setup({ pointerEventsCheck: 0 });

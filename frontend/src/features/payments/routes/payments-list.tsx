@@ -5,6 +5,7 @@ import { Button } from 'primereact/button';
 import { Card } from 'primereact/card';
 import { InputText } from 'primereact/inputtext';
 import { Paginator } from 'primereact/paginator';
+import { PAYMENT_KINDS, PAYMENT_METHODS, type PaymentKind, type PaymentMethod } from '@loambook/common';
 import { paths } from '@/app/paths';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { EmptyState } from '@/components/empty-state';
@@ -19,7 +20,6 @@ import {
   type PaymentPageSize,
   type PaymentsQuery,
 } from '../api/get-payments';
-import { PAYMENT_KINDS, PAYMENT_METHODS, type PaymentKind, type PaymentMethod } from '../api/types';
 import { KIND_LABELS, METHOD_LABELS, methodText, usd } from '../payments-format';
 
 const ALL = '__all__';

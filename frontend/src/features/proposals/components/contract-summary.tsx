@@ -5,12 +5,16 @@ import { formatUsd, type ContractView } from '@loambook/common';
 import { useNotify } from '@/components/notify';
 import { isApiError } from '@/lib/api-client';
 import { formatDateTime } from '@/lib/format';
-import { formatCalendarDate } from '@/features/signing/signing-format';
+import { formatCalendarDate, formatInZone } from '@/features/signing/signing-format';
 import { openPdf } from '../api/download-pdf';
 
-/** The signed contract in a few lines: who signed, when, for how much, and the cancellation clock. */
-export function ContractSummary({ contract }: { contract: ContractView }) {
+/**
+ * The signed contract in a few lines: who signed, when, for how much, and the cancellation clock. Times on
+ * the branch's clock with its zone's abbreviation when `timeZone` (the branch's) is given.
+ */
+export function ContractSummary({ contract, timeZone }: { contract: ContractView; timeZone?: string }) {
   const notify = useNotify();
+  const when = (iso: string) => (timeZone ? formatInZone(iso, timeZone) : formatDateTime(iso));
   const [opening, setOpening] = useState(false);
   const cancelled = contract.status === 'cancelled';
 
@@ -55,7 +59,7 @@ export function ContractSummary({ contract }: { contract: ContractView }) {
         </div>
         <div>
           <dt>When</dt>
-          <dd>{formatDateTime(contract.signedAt)}</dd>
+          <dd>{when(contract.signedAt)}</dd>
         </div>
         <div>
           <dt>Option</dt>
@@ -81,7 +85,7 @@ export function ContractSummary({ contract }: { contract: ContractView }) {
           <div>
             <dt>Cancelled</dt>
             <dd>
-              {formatDateTime(contract.cancellation.at)}
+              {when(contract.cancellation.at)}
               {contract.cancellation.byKind === 'homeowner'
                 ? ' by the homeowner'
                 : contract.cancellation.by

@@ -58,7 +58,7 @@ export function LeadProposals({ leadId }: { leadId: string }) {
 
   return (
     <div className="lead-proposals">
-      {contract.data ? <ContractSummary contract={contract.data} /> : null}
+      {contract.data ? <ContractSummary contract={contract.data} timeZone={lead.data?.timezone} /> : null}
       {proposals.data.length === 0 ? (
         <EmptyState icon="pi-file-edit" title="No proposal yet">
           <p className="lead-proposals__empty">

@@ -1,7 +1,7 @@
 /**
- * The wire types of the payments API (issue #5). Amounts are strings with two decimals ("1234.50"),
- * dates 'YYYY-MM-DD', instants ISO-8601. The screens keep a copy of these in
- * frontend/src/features/payments/api/types.ts (they belong in common/src once the lead moves them there).
+ * The wire types of the payments API (issue #5), shared by the server (backend/src/payments) and the screens
+ * (frontend/src/features/payments). Amounts are strings with two decimals ("1234.50"), dates 'YYYY-MM-DD',
+ * instants ISO-8601.
  */
 export const PAYMENT_KINDS = ['deposit', 'balance'] as const;
 export type PaymentKind = (typeof PAYMENT_KINDS)[number];

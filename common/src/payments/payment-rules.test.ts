@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { contractBalance, depositWarning, fromMinorUnits, linkAmount, sdkMinorUnits } from './payment-rules';
+import {
+  contractBalance,
+  depositWarning,
+  fromMinorUnits,
+  linkAmount,
+  refundOwed,
+  sdkMinorUnits,
+} from './payment-rules';
 
 describe('amounts to and from the processor’s minor units', () => {
   // Stripe API reference (published): amounts are integers in the smallest currency unit, 100 = $1.00.
@@ -106,4 +113,19 @@ describe('the Florida pack’s warning on an initial payment', () => {
       }
     },
   );
+});
+
+describe('whether a cancelled contract still owes money back', () => {
+  // 16 CFR 429 / FTC guidance (secondary): after a valid cancellation every payment received is returned.
+  // `paid` is received less refunded (contractBalance above).
+  it.each([
+    [true, '0.00', false], // cancelled, nothing ever received: nothing to give back
+    [true, '1000.00', true], // the card deposit still held
+    [true, '0.01', true], // a cent is still owed
+    [true, '0', false], // everything received has been refunded
+    [false, '1000.00', false], // a live contract owes nothing back
+    [false, '0.00', false],
+  ] as const)('cancelled %s, paid %s → owed back: %s', (cancelled, paid, owed) => {
+    expect(refundOwed({ cancelled, paid })).toBe(owed);
+  });
 });

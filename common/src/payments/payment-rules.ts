@@ -1,9 +1,9 @@
 // Pure rules of the payments feature: amounts between the processor's integer minor units and our decimal
 // strings, what a contract still owes, what a payment link may ask for, and the state pack's warning on a
-// deposit. No I/O; tested in payment-rules.spec.ts. (These belong in common/src/payments once the lead
-// moves them: they have no backend dependency.)
-import { depositRules, formatUsd, money, MoneyDecimal, toMinorUnits, type Money } from '@loambook/common';
-import type { DepositWarning, PaymentKind } from './payment-views';
+// deposit. No I/O; tested in payment-rules.test.ts.
+import { depositRules } from '../deadlines/deposit-rules';
+import { formatUsd, money, MoneyDecimal, toMinorUnits, type Money } from '../money';
+import type { DepositWarning, PaymentKind } from './api-types';
 
 /**
  * Processors take and give amounts as integers in the smallest currency unit: 100 means $1.00 (Stripe API
@@ -148,4 +148,15 @@ export function depositWarning(input: {
       `Once it is received, ${clocks[0]?.source ?? 'the state rule'} starts these clocks: ${titles}.`,
     clocks,
   };
+}
+
+/**
+ * Whether a cancelled contract still owes the homeowner money back: something was received under it and
+ * not all of it has been refunded yet (16 CFR 429: after a valid cancellation every payment is returned —
+ * FTC guidance, within 10 business days, secondary). `paid` is what came in less what went back, as the
+ * payments panel reports it. A live contract owes nothing back; neither does a cancelled one that never
+ * received anything, or whose payments have all been refunded.
+ */
+export function refundOwed(c: { cancelled: boolean; paid: string }): boolean {
+  return c.cancelled && money(c.paid).greaterThan(0);
 }
