@@ -99,8 +99,19 @@ describe('cautions and the cancellation form', () => {
       label: 'Cancel not later than',
       value: 'midnight at the end of Wednesday, 2026-07-08',
     });
-    expect(f.paragraphs.join(' ')).toContain('Gulf Branch at 1 Clayfield Row, Testerton, FL 32000');
-    expect(f.paragraphs.join(' ')).toContain('ten business days');
+    // The regulation's statements, blanks filled (16 CFR 429.1(b); wording from memory, checked against the
+    // Wisconsin DFI's quotation of the federal notice, secondary).
+    expect(f.paragraphs[0]).toBe(
+      'You may CANCEL this transaction, without any penalty or obligation, within THREE BUSINESS DAYS from the above date.',
+    );
+    expect(f.paragraphs.join(' ')).toContain('within TEN BUSINESS DAYS following receipt by the seller');
+    expect(f.paragraphs.join(' ')).toContain('within 20 days of the date of your notice of cancellation');
+    expect(f.paragraphs[4]).toBe(
+      'To cancel this transaction, mail or deliver a signed and dated copy of this cancellation notice, or any ' +
+        'other written notice, or send a telegram, to Gulf Branch, at 1 Clayfield Row, Testerton, FL 32000, not later than ' +
+        'midnight of Wednesday, 2026-07-08.',
+    );
+    expect(f.cancelLine).toBe('I HEREBY CANCEL THIS TRANSACTION.');
     expect(weekdayDate('2026-11-21')).toBe('Saturday, 2026-11-21');
   });
 });
