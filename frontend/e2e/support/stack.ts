@@ -3,11 +3,19 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import net from 'node:net';
 import path from 'node:path';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import {
+  chromium,
+  type Browser,
+  type BrowserContext,
+  type BrowserContextOptions,
+  type Page,
+} from 'playwright-core';
 import S3rver from 's3rver';
 import { dropDatabase, ensureDatabase, startPostgres } from '../../../backend/scripts/lib/postgres.mjs';
 import { pg, REPO } from '../../../backend/scripts/lib/env.mjs';
 import { startMailCatcher, type MailCatcher } from '../../../backend/test/support/mail-catcher';
+// The compiled fake (npm run build): its source is checked with the backend's compiler settings, not these.
+import { startStripeFake, type StripeFake } from '../../../backend/dist/backend/fakes/stripe/index.js';
 
 const CHROMIUM_ARGS = [
   '--headless',
@@ -52,13 +60,34 @@ export interface Stack {
   /** The journey's own database (for the few facts a journey sets directly, e.g. a deposit received). */
   database: string;
   mail: MailCatcher;
+  /**
+   * The card-processor fake (backend/fakes/stripe), on a random port, delivering signed webhooks to the
+   * server; the server's SDK talks to it. `stripe.payoutNow()`, `stripe.configure({ clockOffsetSec })`…
+   */
+  stripe: StripeFake;
   browser: Browser;
   shotsDir: string;
-  /** A fresh browser profile (no session) sized like a desktop or a phone. */
-  newContext(viewport?: { width: number; height: number }): Promise<BrowserContext>;
+  /**
+   * A fresh browser profile (no session) sized like a desktop or a phone; `options` adds to it (e.g. the
+   * office's `timezoneId`).
+   */
+  newContext(
+    viewport?: { width: number; height: number },
+    options?: BrowserContextOptions,
+  ): Promise<BrowserContext>;
   shot(page: Page, name: string): Promise<void>;
+  /**
+   * Stops the server and starts it again on the same port and database with these variables added to (or,
+   * when undefined, removed from) its environment: e.g. `{ TEST_NOW: '2026-12-09T17:00:00Z' }` moves the
+   * server's clock (honoured with NODE_ENV=test, which vitest sets) without a test-only route.
+   */
+  restartServer(env: Record<string, string | undefined>): Promise<void>;
   close(): Promise<void>;
 }
+
+/** Test keys of the journeys' own processor fake (apart from npm start's, scripts/lib/env.mjs). */
+const STRIPE_SECRET_KEY = 'sk_test_loambook_e2e';
+const STRIPE_WEBHOOK_SECRET = 'whsec_loambook_e2e_not_a_real_secret';
 
 /**
  * The built app as it ships: a fresh database with the demo company, the compiled server serving the
@@ -80,7 +109,14 @@ export async function startStack(journey: string): Promise<Stack> {
   const s3Address = await s3.run();
   const port = await freePort();
   const baseUrl = `http://127.0.0.1:${port}`;
-  const env = {
+  const stripe = await startStripeFake({
+    port: 0,
+    webhookUrl: `${baseUrl}/api/payments/webhook`,
+    webhookSecret: STRIPE_WEBHOOK_SECRET,
+    // A delivery that finds the server restarting is tried again soon.
+    retryBaseMs: 250,
+  });
+  const env: NodeJS.ProcessEnv = {
     ...process.env,
     PGPORT: String(pg.port),
     PGDATABASE: database,
@@ -92,6 +128,14 @@ export async function startStack(journey: string): Promise<Stack> {
     S3_ENDPOINT: `http://127.0.0.1:${s3Address.port}`,
     S3_BUCKET: 'loambook-e2e',
     AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true',
+    STRIPE_SECRET_KEY,
+    STRIPE_WEBHOOK_SECRET,
+    STRIPE_API_HOST: '127.0.0.1',
+    STRIPE_API_PORT: String(stripe.port),
+    STRIPE_API_PROTOCOL: 'http',
+    // The journeys run the commission earning check on request (the statements screen's button), never
+    // on pg-boss's clock, so that what a journey sees does not depend on when a scheduled run falls.
+    COMMISSIONS_SCHEDULER: 'off',
   };
   const db = spawnSync(process.execPath, ['backend/dist/backend/src/cli/db.js', 'migrate', 'seed'], {
     cwd: REPO,
@@ -100,12 +144,22 @@ export async function startStack(journey: string): Promise<Stack> {
   });
   if (db.status !== 0) throw new Error(`migrate/seed failed: ${db.stdout}${db.stderr}`);
 
-  const server: ChildProcess = spawn(process.execPath, ['backend/dist/backend/src/main.js'], {
-    cwd: REPO,
-    env,
-    stdio: ['ignore', 'inherit', 'inherit'],
-  });
-  await waitForHealth(baseUrl, server);
+  const startServer = async (serverEnv: NodeJS.ProcessEnv): Promise<ChildProcess> => {
+    const child = spawn(process.execPath, ['backend/dist/backend/src/main.js'], {
+      cwd: REPO,
+      env: serverEnv,
+      stdio: ['ignore', 'inherit', 'inherit'],
+    });
+    await waitForHealth(baseUrl, child);
+    return child;
+  };
+  const stopServer = async (child: ChildProcess): Promise<void> => {
+    if (child.exitCode !== null || child.signalCode !== null) return;
+    const exited = new Promise((r) => child.once('exit', r));
+    child.kill('SIGTERM');
+    await exited;
+  };
+  let server = await startServer(env);
 
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
@@ -119,9 +173,11 @@ export async function startStack(journey: string): Promise<Stack> {
     baseUrl,
     database,
     mail,
+    stripe,
     browser,
     shotsDir,
-    newContext: (viewport = DESKTOP) => browser.newContext({ viewport, baseURL: baseUrl }),
+    newContext: (viewport = DESKTOP, options = {}) =>
+      browser.newContext({ ...options, viewport, baseURL: baseUrl }),
     async shot(page, name) {
       n += 1;
       await page.screenshot({
@@ -129,10 +185,19 @@ export async function startStack(journey: string): Promise<Stack> {
         fullPage: true,
       });
     },
+    async restartServer(patch) {
+      await stopServer(server);
+      const next: NodeJS.ProcessEnv = { ...env };
+      for (const [key, value] of Object.entries(patch)) {
+        if (value === undefined) delete next[key];
+        else next[key] = value;
+      }
+      server = await startServer(next);
+    },
     async close() {
       await browser.close().catch(() => undefined);
-      server.kill('SIGTERM');
-      await new Promise((r) => server.once('exit', r));
+      await stopServer(server);
+      await stripe.close().catch(() => undefined);
       await mail.close().catch(() => undefined);
       await s3.close().catch(() => undefined);
       rmSync(s3Dir, { recursive: true, force: true });

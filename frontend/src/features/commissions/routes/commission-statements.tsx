@@ -30,6 +30,9 @@ const STATUS_OPTIONS = [
 
 const todayIso = () => new Date().toISOString().slice(0, 10);
 
+/** "1 line", "2 lines". */
+const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+
 /** Statements per salesperson per pay period: the bookkeeper builds, approves and pays; managers read. */
 export default function CommissionStatementsRoute() {
   const ability = useAppAbility();
@@ -61,7 +64,7 @@ export default function CommissionStatementsRoute() {
       const r = await run.mutateAsync();
       notify.success(
         'Earning check done',
-        `${r.linesWritten} new line(s): ${formatUsd(r.earned)} earned, ${formatUsd(r.clawedBack)} clawed back.${r.failures.length ? ` ${r.failures.length} contract(s) could not be checked.` : ''}`,
+        `${count(r.linesWritten, 'new line', 'new lines')}: ${formatUsd(r.earned)} earned, ${formatUsd(r.clawedBack)} clawed back.${r.failures.length ? ` ${count(r.failures.length, 'contract', 'contracts')} could not be checked.` : ''}`,
       );
     } catch {
       notify.error('The earning check did not run', 'Try again in a moment.');
@@ -168,7 +171,7 @@ function BuildDialog({ visible, onClose }: { visible: boolean; onClose: () => vo
       const r = await build.mutateAsync(day);
       notify.success(
         'Statements built',
-        `${r.linesPlaced} line(s) placed on ${r.statements.length} draft statement(s).`,
+        `${count(r.linesPlaced, 'line', 'lines')} placed on ${count(r.statements.length, 'draft statement', 'draft statements')}.`,
       );
       onClose();
     } catch (e) {

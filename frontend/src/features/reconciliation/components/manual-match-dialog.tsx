@@ -105,7 +105,7 @@ export function ManualMatchDialog({
       visible={line !== null}
       onHide={close}
       header="Match a bank line"
-      className="app-dialog"
+      className="app-dialog recon-dialog"
       style={{ width: 'min(36rem, 96vw)' }}
       footer={
         <div className="dialog-actions">

@@ -64,7 +64,11 @@ export function MatchedTable({ matches, onConfirm, onUndo, busyId }: MatchedTabl
       className="recon-table"
       pt={{ table: { 'aria-label': 'Matched pairs' } }}
     >
-      <Column header="Bank date" body={(m: MatchView) => formatDay(m.bankLine.postedOn)} />
+      <Column
+        header="Bank date"
+        bodyClassName="recon-date"
+        body={(m: MatchView) => formatDay(m.bankLine.postedOn)}
+      />
       <Column
         header="Bank line"
         body={(m: MatchView) => (

@@ -60,7 +60,7 @@ export function NewBankAccountDialog({
       visible={visible}
       onHide={close}
       header="New bank account"
-      className="app-dialog"
+      className="app-dialog recon-dialog"
       style={{ width: 'min(32rem, 96vw)' }}
       footer={
         <div className="dialog-actions">
