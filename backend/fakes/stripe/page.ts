@@ -18,7 +18,7 @@ const esc = (s: string) =>
   );
 
 const STYLE = `
-  body { margin: 0; font: 16px/1.5 system-ui, sans-serif; color: #1f2a24; background: #eef1ec; }
+  body { margin: 0; font: 16px/1.5 system-ui, sans-serif; color: #1f2a24; background: #eef1ec; overflow-wrap: anywhere; }
   .notice { background: #2f4a3a; color: #fff; padding: .6rem 1rem; font-size: .9rem; text-align: center; }
   main { max-width: 30rem; margin: 2rem auto; background: #fff; border: 1px solid #cfd6cc; border-radius: 6px; padding: 1.5rem; }
   h1 { font-size: 1.25rem; margin: 0 0 1rem; }

@@ -6,6 +6,7 @@ import {
   linkAmount,
   refundOwed,
   sdkMinorUnits,
+  shownPercent,
 } from './payment-rules';
 
 describe('amounts to and from the processor’s minor units', () => {
@@ -127,5 +128,17 @@ describe('whether a cancelled contract still owes money back', () => {
     [false, '0.00', false],
   ] as const)('cancelled %s, paid %s → owed back: %s', (cancelled, paid, owed) => {
     expect(refundOwed({ cancelled, paid })).toBe(owed);
+  });
+});
+
+describe('shownPercent', () => {
+  it.each([
+    ['15.0000', '15'],
+    ['18.4502', '18.46'],
+    // just over F.S. 489.126(2)(a)'s 10% must not read as exactly 10%
+    ['10.0001', '10.01'],
+    ['10.0000', '10'],
+  ])('%s → %s', (value, shown) => {
+    expect(shownPercent(value)).toBe(shown);
   });
 });

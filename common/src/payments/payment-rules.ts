@@ -121,6 +121,14 @@ export function linkAmount(input: {
  * initial payment starts the permit (30 days) and start-of-work (90 days) clocks of F.S. 489.126(2)(a)
  * (published); exactly 10% does not. Null when the state has no such rule or the amount does not trigger it.
  */
+/**
+ * A percent for people: two decimals at most, rounded UP so that a payment just over a threshold never
+ * reads as the threshold itself (10.0001% shows as 10.01%, not 10%); trailing zeros dropped (15%).
+ */
+export function shownPercent(value: string): string {
+  return money(value).toDecimalPlaces(2, MoneyDecimal.ROUND_UP).toString();
+}
+
 export function depositWarning(input: {
   state: string;
   contractPrice: string;
@@ -144,7 +152,7 @@ export function depositWarning(input: {
     largeInitialPayment: true,
     depositPercent: r.depositPercent,
     message:
-      `An initial payment of ${formatUsd(input.initialPayment)} is ${r.depositPercent}% of the contract price. ` +
+      `An initial payment of ${formatUsd(input.initialPayment)} is ${shownPercent(r.depositPercent)}% of the contract price. ` +
       `Once it is received, ${clocks[0]?.source ?? 'the state rule'} starts these clocks: ${titles}.`,
     clocks,
   };

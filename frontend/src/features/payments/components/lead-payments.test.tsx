@@ -127,7 +127,7 @@ function payments(overrides: Partial<ContractPayments> = {}): ContractPayments {
       largeInitialPayment: true,
       depositPercent: '18.4502',
       message:
-        'An initial payment of $1,000.00 is 18.4502% of the contract price. Once it is received, F.S. 489.126(2)(a) starts these clocks: …',
+        'An initial payment of $1,000.00 is 18.46% of the contract price. Once it is received, F.S. 489.126(2)(a) starts these clocks: …',
       clocks: [
         {
           code: 'FL_489_126_PERMIT',
