@@ -3,6 +3,7 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import net from 'node:net';
 import path from 'node:path';
+import { pathToFileURL } from 'node:url';
 import {
   chromium,
   type Browser,
@@ -15,7 +16,33 @@ import { dropDatabase, ensureDatabase, startPostgres } from '../../../backend/sc
 import { pg, REPO } from '../../../backend/scripts/lib/env.mjs';
 import { startMailCatcher, type MailCatcher } from '../../../backend/test/support/mail-catcher';
 // The compiled fake (npm run build): its source is checked with the backend's compiler settings, not these.
-import { startStripeFake, type StripeFake } from '../../../backend/dist/backend/fakes/stripe/index.js';
+
+/**
+ * The parts of the card-processor fake (backend/fakes/stripe, its README) that the journeys use. It is loaded
+ * from the backend's build at run time — the journeys run after `npm run build` — so that type-checking the
+ * journeys, which comes before the build in `npm test`, does not need that build.
+ */
+export interface StripeFake {
+  url: string;
+  port: number;
+  close(): Promise<void>;
+  payoutNow(): { id: string; amount: number; arrival_date: number }[];
+  configure(patch: Record<string, unknown>): unknown;
+  state: { charges: Map<string, { id: string; status: string; amount: number }> };
+}
+interface StripeFakeModule {
+  startStripeFake(options: {
+    port: number;
+    webhookUrl: string;
+    webhookSecret: string;
+    retryBaseMs: number;
+  }): Promise<StripeFake>;
+}
+async function startStripeFake(options: Parameters<StripeFakeModule['startStripeFake']>[0]) {
+  const built = path.join(REPO, 'backend/dist/backend/fakes/stripe/index.js');
+  const mod = (await import(pathToFileURL(built).href)) as StripeFakeModule;
+  return mod.startStripeFake(options);
+}
 
 const CHROMIUM_ARGS = [
   '--headless',
