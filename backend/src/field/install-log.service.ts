@@ -21,7 +21,7 @@ import { StorageService, StoredObjectMissingError } from '../storage/storage.ser
 import type { DayNoteDto, InstallEntryDto } from './dto/field.dto';
 import { FieldAccess, requireInProgress } from './field-access';
 import { FieldRepository, toJobPhoto } from './field.repository';
-import { checkPhotoFile } from './photo-file';
+import { checkPhotoFile } from '../inspections/photo-file';
 
 /** A phone's clock may run ahead of the server's; a row "written" more than this ahead is refused. */
 const LOGGED_AT_SLACK_MS = 24 * 3600 * 1000;
@@ -172,7 +172,7 @@ export class InstallLogService {
     const prefix = `branches/${job.branchId}/jobs/${jobId}/${id}`;
     const storageKey = `${prefix}.${photo.ext}`;
     const thumbnailKey = photo.thumbnail ? `${prefix}.thumb.jpg` : null;
-    await this.storage.put(storageKey, file!.buffer, photo.contentType);
+    await this.storage.put(storageKey, photo.buffer, photo.contentType);
     try {
       if (photo.thumbnail && thumbnailKey)
         await this.storage.put(thumbnailKey, photo.thumbnail, 'image/jpeg');
@@ -185,7 +185,7 @@ export class InstallLogService {
         storageKey,
         thumbnailKey,
         contentType: photo.contentType,
-        sizeBytes: file!.size,
+        sizeBytes: photo.size,
         caption,
         uploadedBy: user.id,
       });

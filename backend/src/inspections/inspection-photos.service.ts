@@ -3,40 +3,17 @@ import type { Readable } from 'node:stream';
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import { ForbiddenError } from '@casl/ability';
 import type { Knex } from 'knex';
-import { fromBuffer } from 'file-type';
-import sharp from 'sharp';
-import {
-  asSubject,
-  PHOTO_THUMBNAIL_MAX_PX,
-  type InspectionPhoto,
-  type PhotoContentType,
-} from '@loambook/common';
+import { asSubject, type InspectionPhoto } from '@loambook/common';
 import { KNEX } from '../database/database.module';
 import { inTransaction } from '../database/transaction';
-import { conflict, DomainError, invalid, notFound } from '../common/domain-error';
+import { conflict, DomainError, notFound } from '../common/domain-error';
 import type { SessionUser } from '../auth/session-user';
 import { StorageService, StoredObjectMissingError } from '../storage/storage.service';
 import { InspectionPhotosRepository, type PhotoRecord } from './inspection-photos.repository';
 import { InspectionsRepository } from './inspections.repository';
 import { InspectionsService } from './inspections.service';
-import { UploadRefusedError } from './upload-errors';
-
-/** What multer hands over with its default (memory) storage. */
-export interface UploadedPhotoFile {
-  buffer: Buffer;
-  size: number;
-  originalname: string;
-}
-
-/** Accepted photo types as detected from the bytes, never from the name or the declared type. */
-const ACCEPTED: Record<string, { contentType: PhotoContentType; ext: string }> = {
-  'image/jpeg': { contentType: 'image/jpeg', ext: 'jpg' },
-  'image/png': { contentType: 'image/png', ext: 'png' },
-  'image/webp': { contentType: 'image/webp', ext: 'webp' },
-  // Phones write HEIC with the 'heic' brand; some tools the generic HEIF 'mif1' brand. Both kept as HEIC.
-  'image/heic': { contentType: 'image/heic', ext: 'heic' },
-  'image/heif': { contentType: 'image/heic', ext: 'heic' },
-};
+import { checkPhotoFile, type UploadedPhotoFile } from './photo-file';
+export type { UploadedPhotoFile } from './photo-file';
 
 export interface PhotoContent {
   stream: Readable;
@@ -72,27 +49,15 @@ export class InspectionPhotosService {
     if (inspection.status === 'cancelled') {
       throw conflict('INSPECTION.CANCELLED', 'This inspection is cancelled: photos can no longer be added.');
     }
-    if (!file) throw invalid('file', 'Choose a photo to upload (the form part named "file").');
-    if (file.size === 0) throw invalid('file', 'The file is empty.');
-
-    const detected = await fromBuffer(file.buffer);
-    const kind = detected ? ACCEPTED[detected.mime] : undefined;
-    if (!kind) {
-      throw new UploadRefusedError(
-        415,
-        'UPLOAD.UNSUPPORTED_TYPE',
-        `This file is not a JPEG, PNG, WebP or HEIC photo${detected ? ` (its content is ${detected.mime})` : ''}, ` +
-          'whatever its name says. Send the photo itself.',
-      );
-    }
-    const thumbnail = await this.thumbnail(file.buffer, kind.contentType);
+    const kind = await checkPhotoFile(file);
+    const { thumbnail } = kind;
 
     const id = randomUUID();
     // Branch first, so a branch's files can be listed, moved or removed together.
     const prefix = `branches/${inspection.branchId}/inspections/${inspectionId}/${id}`;
     const storageKey = `${prefix}.${kind.ext}`;
     const thumbnailKey = thumbnail ? `${prefix}.thumb.jpg` : null;
-    await this.storage.put(storageKey, file.buffer, kind.contentType);
+    await this.storage.put(storageKey, kind.buffer, kind.contentType);
     try {
       if (thumbnail && thumbnailKey) await this.storage.put(thumbnailKey, thumbnail, 'image/jpeg');
       await this.repo.insert({
@@ -102,7 +67,7 @@ export class InspectionPhotosService {
         storageKey,
         thumbnailKey,
         contentType: kind.contentType,
-        sizeBytes: file.size,
+        sizeBytes: kind.size,
         caption,
         uploadedBy: user.id,
       });
@@ -175,29 +140,6 @@ export class InspectionPhotosService {
     const rec = await this.readable(user, photoId, db);
     ForbiddenError.from(user.ability).throwUnlessCan('update', subjectOf(rec));
     return rec;
-  }
-
-  /**
-   * A JPEG at most PHOTO_THUMBNAIL_MAX_PX on its longer side, turned upright by its EXIF orientation
-   * (sharp drops the rest of the metadata, GPS included). HEIC: the sharp build here has no HEVC decoder,
-   * so such photos are kept without a thumbnail. Any other type that will not decode is not a photo.
-   */
-  private async thumbnail(buffer: Buffer, contentType: PhotoContentType): Promise<Buffer | null> {
-    try {
-      return await sharp(buffer)
-        .rotate()
-        .resize(PHOTO_THUMBNAIL_MAX_PX, PHOTO_THUMBNAIL_MAX_PX, { fit: 'inside', withoutEnlargement: true })
-        .flatten({ background: '#ffffff' })
-        .jpeg({ quality: 80 })
-        .toBuffer();
-    } catch {
-      if (contentType === 'image/heic') return null;
-      throw new UploadRefusedError(
-        415,
-        'UPLOAD.UNSUPPORTED_TYPE',
-        `This file starts like a ${contentType.slice(6).toUpperCase()} image but cannot be read as one.`,
-      );
-    }
   }
 
   /** Best effort: a file left behind is logged for clean-up, never shown to the user as a failure. */

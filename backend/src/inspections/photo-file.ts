@@ -2,16 +2,23 @@ import { fromBuffer } from 'file-type';
 import sharp from 'sharp';
 import { PHOTO_THUMBNAIL_MAX_PX, type PhotoContentType } from '@loambook/common';
 import { invalid } from '../common/domain-error';
-import type { UploadedPhotoFile } from '../inspections/inspection-photos.service';
-import { UploadRefusedError } from '../inspections/upload-errors';
+import { UploadRefusedError } from './upload-errors';
+
+/** What multer hands over with its default (memory) storage. */
+export interface UploadedPhotoFile {
+  buffer: Buffer;
+  size: number;
+  originalname: string;
+}
 
 /**
- * The same acceptance as the inspection photos (backend/src/inspections): the type is read from the
- * bytes (file-type), never from the name or the declared type; JPEG, PNG, WebP or HEIC (HEIF's generic
- * brand kept as HEIC); at most PHOTO_MAX_BYTES (multer's limit on the route); a JPEG thumbnail with sharp,
- * upright by its EXIF orientation and without the rest of the metadata (GPS included). The inspection
- * service keeps these steps private, so they are written out here once more; both answer with the
- * inspections' UploadRefusedError and UploadErrorsFilter.
+ * How a photo upload is accepted, for inspections and the crew's log alike: the type is read from the
+ * bytes (file-type), never from the name or the declared type; JPEG, PNG, WebP or HEIC (phones write the
+ * 'heic' brand, some tools HEIF's generic 'mif1': both kept as HEIC); at most PHOTO_MAX_BYTES (multer's
+ * limit on the route); a JPEG thumbnail with sharp at most PHOTO_THUMBNAIL_MAX_PX on its longer side,
+ * upright by its EXIF orientation and without the rest of the metadata (GPS included). The sharp build
+ * here has no HEVC decoder, so HEIC photos are kept without a thumbnail; any other type that will not
+ * decode is not a photo. Refusals are UploadRefusedError, answered by UploadErrorsFilter.
  */
 const ACCEPTED: Record<string, { contentType: PhotoContentType; ext: string }> = {
   'image/jpeg': { contentType: 'image/jpeg', ext: 'jpg' },
@@ -22,6 +29,9 @@ const ACCEPTED: Record<string, { contentType: PhotoContentType; ext: string }> =
 };
 
 export interface CheckedPhoto {
+  /** The upload's bytes and size, once checked. */
+  buffer: Buffer;
+  size: number;
   contentType: PhotoContentType;
   ext: string;
   /** null for HEIC, which this server's sharp cannot decode. */
@@ -48,9 +58,10 @@ export async function checkPhotoFile(file: UploadedPhotoFile | undefined): Promi
       .flatten({ background: '#ffffff' })
       .jpeg({ quality: 80 })
       .toBuffer();
-    return { ...kind, thumbnail };
+    return { ...kind, buffer: file.buffer, size: file.size, thumbnail };
   } catch {
-    if (kind.contentType === 'image/heic') return { ...kind, thumbnail: null };
+    if (kind.contentType === 'image/heic')
+      return { ...kind, buffer: file.buffer, size: file.size, thumbnail: null };
     throw new UploadRefusedError(
       415,
       'UPLOAD.UNSUPPORTED_TYPE',
