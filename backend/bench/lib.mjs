@@ -54,7 +54,8 @@ export async function startServer(database, extraEnv = {}, { cpus } = {}) {
   const url = `http://127.0.0.1:${port}`;
   for (let i = 0; i < 120; i++) {
     try {
-      if ((await fetch(`${url}/api/health`)).ok) return { url, stop: () => child.kill('SIGTERM') };
+      if ((await fetch(`${url}/api/health`)).ok)
+        return { url, pid: child.pid, stop: () => child.kill('SIGTERM') };
     } catch {
       /* not yet */
     }

@@ -12,6 +12,7 @@ import { AppModule } from './app.module';
 import type { AppConfig } from './config/config';
 import { createValidationPipe } from './common/validation';
 import { bodyParserErrors } from './common/exception.filter';
+import { JsonReplyAdapter } from './common/json-reply.adapter';
 
 export function openApiDocument(app: NestExpressApplication): OpenAPIObject {
   const config = new DocumentBuilder()
@@ -35,13 +36,18 @@ function assignRequestId(req: Request & { id?: string }, res: Response, next: Ne
 
 /** Builds the whole application: used by main.ts and by the API tests, so both run the same stack. */
 export async function createApp(config: AppConfig): Promise<NestExpressApplication> {
-  const app = await NestFactory.create<NestExpressApplication>(AppModule.forRoot(config), {
-    bufferLogs: true,
-    bodyParser: false,
-  });
+  const app = await NestFactory.create<NestExpressApplication>(
+    AppModule.forRoot(config),
+    new JsonReplyAdapter(),
+    { bufferLogs: true, bodyParser: false },
+  );
   app.useLogger(app.get(Logger));
   app.set('trust proxy', 'loopback');
   app.set('query parser', 'simple');
+  // No ETags on the answers (res.send would hash every body for one): nothing in the app revalidates an
+  // API answer (no If-None-Match, no 304 handling), and the answers are per person and change with every
+  // write. Static files (serve-static, sendFile) keep their own ETags.
+  app.set('etag', false);
   app.use(
     helmet({
       contentSecurityPolicy: {

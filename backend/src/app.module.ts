@@ -23,6 +23,9 @@ import { PaymentsModule } from './payments/payments.module';
 import { ReconciliationModule } from './reconciliation/reconciliation.module';
 import { CommissionsModule } from './commissions/commissions.module';
 
+/** Log levels at which pino-http would write no per-request line (it logs requests at info). */
+const QUIET_LEVELS = new Set(['warn', 'error', 'fatal', 'silent']);
+
 @Module({})
 export class AppModule {
   static forRoot(config: AppConfig): DynamicModule {
@@ -31,7 +34,13 @@ export class AppModule {
       global: true,
       imports: [
         LoggerModule.forRoot({
-          forRoutes: [{ path: '{*path}', method: RequestMethod.ALL }],
+          // The per-request logger (pino-http's request-completed line at info, and the request bound to
+          // every line logged while it runs) only at info or more verbose: at warn or quieter it writes
+          // nothing, and binding it to each request cost ~0.15 ms of every API request. Errors are logged
+          // at any level, with the request id (AllExceptionsFilter).
+          forRoutes: QUIET_LEVELS.has(config.logLevel)
+            ? []
+            : [{ path: '{*path}', method: RequestMethod.ALL }],
           pinoHttp: {
             level: config.logLevel,
             // The id assigned by the first middleware (app.factory.ts).

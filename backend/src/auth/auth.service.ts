@@ -15,7 +15,7 @@ import { APP_CONFIG, type AppConfig } from '../config/config';
 import { KNEX } from '../database/database.module';
 import { inTransaction, type Db } from '../database/transaction';
 import { DomainError } from '../common/domain-error';
-import { AuthRepository, type UserCredentialsRow } from './auth.repository';
+import { AuthRepository, type SessionRow, type UserCredentialsRow } from './auth.repository';
 import { burnPasswordCheck, hashPassword, verifyPassword } from './password-hash';
 import type { SessionUser } from './session-user';
 
@@ -68,7 +68,7 @@ export class AuthService {
    * built from the row — the session user and its CASL ability — is reused while the row says the same.
    */
   async userForToken(payload: TokenPayload): Promise<SessionUser | null> {
-    const row = await this.repo.findById(payload.sub);
+    const row = await this.repo.sessionRow(payload.sub);
     if (!row || !row.active || row.tokenVersion !== payload.tv) return null;
     const key = `${row.id}|${row.tokenVersion}|${row.role}|${row.name}|${row.email}|${row.branchIds.join(',')}`;
     const known = this.sessions.get(key);
@@ -157,6 +157,6 @@ function linkUnusable(code: keyof typeof LINK_MESSAGES & string) {
   return new DomainError('gone', code, LINK_MESSAGES[code] ?? 'This link cannot be used.');
 }
 
-function toAuthUser(row: UserCredentialsRow): AuthUser {
+function toAuthUser(row: SessionRow): AuthUser {
   return { id: row.id, name: row.name, email: row.email, role: row.role, branchIds: row.branchIds };
 }

@@ -131,6 +131,97 @@ function toEntry(r: Row, lines: JournalLine[]): JournalEntry {
   };
 }
 
+/** What one posting statement found and did (LedgerRepository.postEntry). */
+export interface PostOutcome {
+  /** The entry already posted under the key (as the statement's snapshot saw it): nothing was written. */
+  existingId: string | null;
+  branchExists: boolean;
+  /** The branches of the lead, contract and job the entry names (null: not named, or no such record). */
+  recordBranches: { lead: string | null; contract: string | null; job: string | null };
+  /** The entry written, with its lines; null when nothing was written. */
+  entry: JournalEntry | null;
+}
+
+const REFS = [
+  ['lead', 'leadId', 'leads'],
+  ['contract', 'contractId', 'contracts'],
+  ['job', 'jobId', 'jobs'],
+] as const;
+
+/**
+ * The one statement that posts an entry: it looks up the key, the branch and the branches of the records
+ * the entry names, and — only when the key is unused, the branch exists and every record named is in it —
+ * inserts the entry (ON CONFLICT on the key: a concurrent post of the same key waits for that one to commit,
+ * then inserts nothing) and its lines, returning the checks and the entry as read back from what was
+ * written. Exported so that the webhook benchmark replays exactly this statement.
+ */
+export function postEntryStatement(
+  e: NewEntry,
+  lines: NewLine[],
+): { sql: string; bindings: (string | null)[] } {
+  const named = REFS.filter(([, field]) => e[field] !== null);
+  const bindings: (string | null)[] = [e.branchId, e.idempotencyKey];
+  for (const [, field] of named) bindings.push(e[field]);
+  bindings.push(
+    e.branchId,
+    e.reasonCode,
+    e.sourceKind,
+    e.sourceRef,
+    e.idempotencyKey,
+    e.reversesEntryId,
+    e.memo,
+    e.effectiveOn,
+    e.postedBy,
+    e.leadId,
+    e.contractId,
+    e.jobId,
+  );
+  bindings.push(...named.map(() => e.branchId));
+  for (const l of lines) bindings.push(l.accountId, l.side, l.amount, l.salespersonId);
+  const sql = `with chk as (
+    select exists (select 1 from branches where id = ?::uuid) as branch_ok,
+      (select id from journal_entries where idempotency_key = ?::text) as existing_id${named
+        .map(
+          ([what, , table]) =>
+            `,\n      (select branch_id from ${table} where id = ?::uuid) as ${what}_branch`,
+        )
+        .join('')}
+  ), e as (
+    insert into journal_entries (branch_id, reason_code, source_kind, source_ref, idempotency_key,
+      reverses_entry_id, memo, effective_on, posted_by, lead_id, contract_id, job_id)
+    select ?::uuid, ?::text, ?::text, ?::text, ?::text, ?::uuid, ?::text, ?::date, ?::uuid, ?::uuid, ?::uuid, ?::uuid
+    from chk where chk.branch_ok and chk.existing_id is null${named
+      .map(([what]) => ` and chk.${what}_branch = ?::uuid`)
+      .join('')}
+    on conflict (idempotency_key) do nothing
+    returning id, branch_id, reason_code, source_kind, source_ref, memo,
+      ${DATE('effective_on')} as effective_on_text, posted_at, posted_by, lead_id, contract_id, job_id,
+      reverses_entry_id
+  ), l as (
+    insert into journal_lines (entry_id, position, account_id, branch_id, side, amount, salesperson_id)
+    select e.id, v.position, v.account_id, e.branch_id, v.side, v.amount, v.salesperson_id
+    from e, (values ${lines
+      .map((_, i) => `(${i + 1}, ?::uuid, ?::text, ?::numeric, ?::uuid)`)
+      .join(', ')}) as v (position, account_id, side, amount, salesperson_id)
+    returning id, entry_id, position, account_id, side, amount, salesperson_id
+  )
+  select chk.branch_ok, chk.existing_id${named.map(([what]) => `, chk.${what}_branch`).join('')},
+    e.id, e.branch_id, b.code as branch_code, e.reason_code, e.source_kind, e.source_ref, e.memo,
+    e.effective_on_text, e.posted_at, e.posted_by, u.name as posted_by_name, e.lead_id, e.contract_id,
+    e.job_id, e.reverses_entry_id, null::uuid as reversed_by,
+    l.id as line_id, l.account_id, a.code as account_code, a.name as account_name, l.side, l.amount,
+    l.salesperson_id, s.name as salesperson_name
+  from chk
+  left join e on true
+  left join l on l.entry_id = e.id
+  left join branches b on b.id = e.branch_id
+  left join ledger_accounts a on a.id = l.account_id
+  left join users u on u.id = e.posted_by
+  left join users s on s.id = l.salesperson_id
+  order by l.position`;
+  return { sql, bindings };
+}
+
 /** The only file of the ledger that touches Knex. */
 @Injectable()
 export class LedgerRepository {
@@ -167,23 +258,6 @@ export class LedgerRepository {
     return ((await q) as { timezone: string }[]).map((r) => r.timezone);
   }
 
-  /** The branches of the lead, contract and job an entry names (null when the record does not exist). */
-  async recordBranches(
-    refs: { leadId: string | null; contractId: string | null; jobId: string | null },
-    db: Db = this.knex,
-  ): Promise<{ lead: string | null; contract: string | null; job: string | null }> {
-    const one = async (table: string, id: string | null) =>
-      id
-        ? ((((await db(table).where({ id }).first('branch_id')) as Row | undefined)?.branch_id as string) ??
-          null)
-        : null;
-    return {
-      lead: await one('leads', refs.leadId),
-      contract: await one('contracts', refs.contractId),
-      job: await one('jobs', refs.jobId),
-    };
-  }
-
   // ---- posting ----------------------------------------------------------------------------------------
 
   async entryIdByKey(key: string, db: Db = this.knex): Promise<string | null> {
@@ -192,43 +266,29 @@ export class LedgerRepository {
   }
 
   /**
-   * Inserts the entry unless its idempotency key is taken; returns the new id, or null when another
-   * transaction posted that key first (ON CONFLICT waits for it to commit, then does nothing).
+   * Posts an entry and its lines in one round trip (postEntryStatement): what the checks found, and the
+   * entry written (null when the key was taken, the branch is missing or a record named is elsewhere —
+   * then nothing was written).
    */
-  async insertEntry(e: NewEntry, db: Db): Promise<string | null> {
-    const rows = (await db('journal_entries')
-      .insert({
-        branch_id: e.branchId,
-        reason_code: e.reasonCode,
-        source_kind: e.sourceKind,
-        source_ref: e.sourceRef,
-        idempotency_key: e.idempotencyKey,
-        reverses_entry_id: e.reversesEntryId,
-        memo: e.memo,
-        effective_on: e.effectiveOn,
-        posted_by: e.postedBy,
-        lead_id: e.leadId,
-        contract_id: e.contractId,
-        job_id: e.jobId,
-      })
-      .onConflict('idempotency_key')
-      .ignore()
-      .returning('id')) as { id: string }[];
-    return rows[0]?.id ?? null;
-  }
-
-  async insertLines(entryId: string, branchId: string, lines: NewLine[], db: Db): Promise<void> {
-    await db('journal_lines').insert(
-      lines.map((l, i) => ({
-        entry_id: entryId,
-        position: i + 1,
-        account_id: l.accountId,
-        branch_id: branchId,
-        side: l.side,
-        amount: l.amount,
-        salesperson_id: l.salespersonId,
-      })),
-    );
+  async postEntry(e: NewEntry, lines: NewLine[], db: Db): Promise<PostOutcome> {
+    const { sql, bindings } = postEntryStatement(e, lines);
+    const { rows } = await db.raw<{ rows: Row[] }>(sql, bindings);
+    const first = rows[0]!;
+    return {
+      existingId: (first.existing_id as string | null) ?? null,
+      branchExists: first.branch_ok === true,
+      recordBranches: {
+        lead: (first.lead_branch as string | null | undefined) ?? null,
+        contract: (first.contract_branch as string | null | undefined) ?? null,
+        job: (first.job_branch as string | null | undefined) ?? null,
+      },
+      entry: first.id
+        ? toEntry(
+            first,
+            rows.map((r) => toLine({ ...r, id: r.line_id })),
+          )
+        : null,
+    };
   }
 
   // ---- reading entries --------------------------------------------------------------------------------

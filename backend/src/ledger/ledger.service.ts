@@ -111,6 +111,47 @@ function fingerprint(
   ]);
 }
 
+/** More branches than a contractor has: past it the account cache simply starts again. */
+const ACCOUNT_CACHE_BRANCHES = 1000;
+
+/** The posting's lines with their accounts' ids; null when the branch lacks one of the accounts. */
+function linesOf(posting: Posting, accounts: Map<string, string>): NewLine[] | null {
+  const lines: NewLine[] = [];
+  for (const l of posting.lines) {
+    const accountId = accounts.get(l.account);
+    if (!accountId) return null;
+    lines.push({
+      accountId,
+      side: l.side,
+      amount: money(l.amount).toFixed(2),
+      salespersonId: l.salespersonId ?? null,
+    });
+  }
+  return lines;
+}
+
+/** Every record an entry names must be in the entry's branch (null: no such record). */
+function checkRecords(
+  branchId: string,
+  refs: { leadId: string | null; contractId: string | null; jobId: string | null },
+  found: { lead: string | null; contract: string | null; job: string | null },
+) {
+  const pairs = [
+    ['lead', refs.leadId, found.lead],
+    ['contract', refs.contractId, found.contract],
+    ['job', refs.jobId, found.job],
+  ] as const;
+  for (const [what, id, branch] of pairs) {
+    if (id && branch !== branchId) {
+      throw new DomainError(
+        'rule',
+        'LEDGER.RECORD_OUTSIDE_BRANCH',
+        `The ${what} named by the entry is not in the entry's branch.`,
+      );
+    }
+  }
+}
+
 /**
  * The ledger: posts balanced entries (idempotently, by key), reverses them, and answers the bookkeeper's
  * questions (journal, account ledger, trial balance). The database checks every entry again at commit.
@@ -118,6 +159,9 @@ function fingerprint(
  */
 @Injectable()
 export class LedgerService {
+  /** Account ids by code, per branch (see accountIds). */
+  private readonly accountsByBranch = new Map<string, Map<string, string>>();
+
   constructor(
     private readonly repo: LedgerRepository,
     @Inject(KNEX) private readonly knex: Knex,
@@ -222,31 +266,28 @@ export class LedgerService {
     if (!/^\d{4}-\d{2}-\d{2}$/.test(ctx.effectiveOn ?? '')) {
       throw new DomainError('rule', 'LEDGER.DATE_INVALID', 'The effective date must be YYYY-MM-DD.');
     }
+    const refs = {
+      leadId: ctx.leadId ?? null,
+      contractId: ctx.contractId ?? null,
+      jobId: ctx.jobId ?? null,
+    };
     return inTransaction(outer, async (db) => {
-      const existing = await this.repo.entryIdByKey(key, db);
-      if (existing) return { entry: await this.checkedRepeat(existing, posting, ctx), created: false };
-
-      const accounts = new Map((await this.repo.accounts(ctx.branchId, db)).map((a) => [a.code, a.id]));
-      if (accounts.size === 0) throw branchNotFound();
-      const refs = {
-        leadId: ctx.leadId ?? null,
-        contractId: ctx.contractId ?? null,
-        jobId: ctx.jobId ?? null,
-      };
-      await this.checkRecords(ctx.branchId, refs, db);
-      const lines: NewLine[] = posting.lines.map((l) => {
-        const accountId = accounts.get(l.account);
-        if (!accountId) {
-          throw new DomainError('rule', 'LEDGER.UNKNOWN_ACCOUNT', `The branch has no account ${l.account}.`);
-        }
-        return {
-          accountId,
-          side: l.side,
-          amount: money(l.amount).toFixed(2),
-          salespersonId: l.salespersonId ?? null,
-        };
-      });
-      const id = await this.repo.insertEntry(
+      const accounts = await this.accountIds(ctx.branchId, posting, db);
+      const lines = accounts && linesOf(posting, accounts);
+      if (!lines) {
+        // No such branch, or it lacks an account: the key is looked at first, as for any posting.
+        const existing = await this.repo.entryIdByKey(key, db);
+        if (existing) return { entry: await this.checkedRepeat(existing, posting, ctx, db), created: false };
+        if (!accounts) throw branchNotFound();
+        const missing = posting.lines.find((l) => !accounts.has(l.account))!;
+        throw new DomainError(
+          'rule',
+          'LEDGER.UNKNOWN_ACCOUNT',
+          `The branch has no account ${missing.account}.`,
+        );
+      }
+      // One statement: the key, the branch and the records checked, the entry and its lines written.
+      const out = await this.repo.postEntry(
         {
           branchId: ctx.branchId,
           reasonCode: posting.reasonCode,
@@ -257,16 +298,40 @@ export class LedgerService {
           effectiveOn: ctx.effectiveOn,
           ...refs,
         },
+        lines,
         db,
       );
-      if (!id) {
+      if (out.existingId) {
+        return { entry: await this.checkedRepeat(out.existingId, posting, ctx, db), created: false };
+      }
+      if (!out.branchExists) {
+        this.accountsByBranch.delete(ctx.branchId);
+        throw branchNotFound();
+      }
+      checkRecords(ctx.branchId, refs, out.recordBranches);
+      if (!out.entry) {
         // Another transaction posted this key while we were getting ready: theirs stands.
         const theirs = await this.repo.entryIdByKey(key, db);
         return { entry: await this.checkedRepeat(theirs!, posting, ctx, db), created: false };
       }
-      await this.repo.insertLines(id, ctx.branchId, lines, db);
-      return { entry: (await this.repo.entry(id, db))!, created: true };
+      return { entry: out.entry, created: true };
     });
+  }
+
+  /**
+   * The branch's account ids by code. They never change (a trigger keeps an account's branch and code,
+   * and deletes accounts only with their branch), so they are read once per branch; read again when a
+   * posting names a code not yet seen. Null: the branch has no accounts (no such branch).
+   */
+  private async accountIds(branchId: string, posting: Posting, db: Db): Promise<Map<string, string> | null> {
+    let known = this.accountsByBranch.get(branchId);
+    if (!known || posting.lines.some((l) => !known!.has(l.account))) {
+      known = new Map((await this.repo.accounts(branchId, db)).map((a) => [a.code, a.id]));
+      if (this.accountsByBranch.size >= ACCOUNT_CACHE_BRANCHES) this.accountsByBranch.clear();
+      if (known.size > 0) this.accountsByBranch.set(branchId, known);
+      else this.accountsByBranch.delete(branchId);
+    }
+    return known.size > 0 ? known : null;
   }
 
   /** The entry already posted under a key, after checking it is the same posting. */
@@ -293,28 +358,6 @@ export class LedgerService {
       });
     }
     return entry;
-  }
-
-  private async checkRecords(
-    branchId: string,
-    refs: { leadId: string | null; contractId: string | null; jobId: string | null },
-    db: Db,
-  ) {
-    const found = await this.repo.recordBranches(refs, db);
-    const pairs = [
-      ['lead', refs.leadId, found.lead],
-      ['contract', refs.contractId, found.contract],
-      ['job', refs.jobId, found.job],
-    ] as const;
-    for (const [what, id, branch] of pairs) {
-      if (id && branch !== branchId) {
-        throw new DomainError(
-          'rule',
-          'LEDGER.RECORD_OUTSIDE_BRANCH',
-          `The ${what} named by the entry is not in the entry's branch.`,
-        );
-      }
-    }
   }
 
   private async todayIn(branchId: string, db: Db): Promise<string> {

@@ -14,6 +14,9 @@ import { STRIPE } from './stripe.provider';
  */
 export const WEBHOOK_TOLERANCE_SECONDS = 300;
 
+/** Charges name our contract in their metadata (ProcessorPostings checks it again). */
+const CONTRACT_ID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
 export interface WebhookAnswer {
   status: number;
   body: Record<string, unknown>;
@@ -90,8 +93,10 @@ export class WebhooksService {
       if (await this.repo.eventProcessed(event.id)) {
         return answer(200, { received: true, duplicate: true }, since);
       }
+      const fee = this.feeAhead(event);
       const outcome = await this.knex.transaction(async (trx) => {
         if (!(await this.repo.claimEvent(row, trx))) return null;
+        await fee;
         const o = await this.process(event, trx);
         if (o.kind === 'ignored') await this.repo.markEventIgnored(event.id, trx);
         return o;
@@ -121,6 +126,27 @@ export class WebhooksService {
         since,
       );
     }
+  }
+
+  /**
+   * A new charge of one of our contracts needs its balance transaction (the fee) from the processor before
+   * it is recorded: fetched while the transaction opens and claims the event, rather than after, and put
+   * in the charge as the expanded object (which ProcessorPostings.recordCharge then uses as it is). Only
+   * an optimisation: if the fetch fails, the charge keeps the id and recordCharge fetches it (and reports
+   * a failure) itself.
+   */
+  private feeAhead(event: Stripe.Event): Promise<void> {
+    if (event.type !== 'charge.succeeded' || !this.stripe) return Promise.resolve();
+    const charge = event.data.object;
+    const id = charge.balance_transaction;
+    if (typeof id !== 'string' || charge.status !== 'succeeded' || !charge.paid) return Promise.resolve();
+    if (!CONTRACT_ID.test(charge.metadata?.contractId ?? '')) return Promise.resolve();
+    return this.stripe.balanceTransactions.retrieve(id).then(
+      (txn) => {
+        if (charge.balance_transaction === id) charge.balance_transaction = txn;
+      },
+      () => undefined,
+    );
   }
 
   /** One event's work, inside its transaction. */
