@@ -16,6 +16,7 @@ import {
   type CommissionStatementSummary,
   type PayStatementInput,
   type StatementLineInput,
+  toMoneyString,
 } from '@loambook/common';
 import type { SessionUser } from '../auth/session-user';
 import { KNEX } from '../database/database.module';
@@ -155,7 +156,8 @@ export class CommissionStatementsService {
       trx,
     );
     const draftStart = new Map(drafts.map((d) => [d.id, d.periodStart]));
-    const signed = (l: LineRow) => (l.kind === 'clawback' ? money(l.amount).negated().toFixed(2) : l.amount);
+    const signed = (l: LineRow) =>
+      l.kind === 'clawback' ? toMoneyString(money(l.amount).negated()) : l.amount;
     const input: PlacedLine[] = [
       ...onDrafts.map((l) => ({
         id: l.id,

@@ -11,6 +11,7 @@ import {
   type CommissionMilestone,
   type EarningRunResult,
   type Money,
+  toMoneyString,
 } from '@loambook/common';
 import { KNEX } from '../database/database.module';
 import { inTransaction } from '../database/transaction';
@@ -37,7 +38,7 @@ const ledgerLine = (l: LineRow): CommissionLedgerLine => ({
   salespersonId: l.salespersonId,
   milestone: l.milestone,
   kind: l.kind,
-  amount: l.kind === 'clawback' ? money(l.amount).negated().toFixed(2) : l.amount,
+  amount: l.kind === 'clawback' ? toMoneyString(money(l.amount).negated()) : l.amount,
 });
 
 /**
@@ -86,8 +87,8 @@ export class CommissionsService {
         this.logger.error({ err: e, contractId: id }, 'Commission earning check failed for a contract');
       }
     }
-    result.earned = earned.toFixed(2);
-    result.clawedBack = clawedBack.toFixed(2);
+    result.earned = toMoneyString(earned);
+    result.clawedBack = toMoneyString(clawedBack);
     if (result.linesWritten > 0 || result.failures.length > 0) {
       this.logger.log(
         `Commission earning check as of ${result.asOf}: ${result.linesWritten} line(s), earned ${result.earned}, clawed back ${result.clawedBack}, ${result.failures.length} failure(s)`,
@@ -120,7 +121,7 @@ export class CommissionsService {
       );
       const outcome = { ...none };
       for (const ev of events) {
-        const amount = money(ev.amount).abs().toFixed(2);
+        const amount = toMoneyString(money(ev.amount).abs());
         const memo = `${ev.kind === 'earning' ? 'Commission earned' : 'Commission clawed back'} — ${c.homeownerName} (${MILESTONE_MEMO[ev.milestone]})`;
         const posting =
           ev.kind === 'earning'

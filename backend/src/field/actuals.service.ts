@@ -7,6 +7,7 @@ import {
   summariseActuals,
   type ActualsSummaryRow,
   type JobActuals,
+  toMoneyString,
 } from '@loambook/common';
 import type { SessionUser } from '../auth/session-user';
 import { notFound } from '../common/domain-error';
@@ -15,7 +16,7 @@ import { FieldAccess } from './field-access';
 import { FieldRepository, type CompletedJobFigures } from './field.repository';
 
 /** Revenue of a job: the contract's price without the sales tax charged on the invoice. */
-const revenue = (price: string, tax: string) => money(price).minus(money(tax)).toFixed(2);
+const revenue = (price: string, tax: string) => toMoneyString(money(price).minus(money(tax)));
 
 /**
  * What the job actually cost against the plan (common/src/jobs/actuals.ts has the rule), per job and

@@ -10,6 +10,7 @@ import {
   type LedgerAccount,
   type Side,
   type SourceKind,
+  toMoneyString,
 } from '@loambook/common';
 import { KNEX } from '../database/database.module';
 import type { Db } from '../database/transaction';
@@ -126,7 +127,7 @@ function toEntry(r: Row, lines: JournalLine[]): JournalEntry {
     jobId: (r.job_id as string | null) ?? null,
     reversesEntryId: (r.reverses_entry_id as string | null) ?? null,
     reversedByEntryId: (r.reversed_by as string | null) ?? null,
-    total: total.toFixed(2),
+    total: toMoneyString(total),
     lines,
   };
 }
@@ -501,7 +502,7 @@ export class LedgerRepository {
         amount: r.amount as string,
         salespersonId: (r.salesperson_id as string | null) ?? null,
         salespersonName: (r.salesperson_name as string | null) ?? null,
-        balance: money(r.balance as string).toFixed(2),
+        balance: toMoneyString(r.balance as string),
       })),
     };
   }
@@ -595,6 +596,6 @@ export class LedgerRepository {
     if (branchId) q.where('l.branch_id', branchId);
     if (asOf) q.where('e.effective_on', '<=', asOf);
     const r = (await q) as { net: string };
-    return money(r.net).toFixed(2);
+    return toMoneyString(r.net);
   }
 }

@@ -21,6 +21,7 @@ import {
   type Posting,
   type SourceKind,
   type TrialBalance,
+  toMoneyString,
 } from '@loambook/common';
 import { APP_CONFIG, type AppConfig } from '../config/config';
 import { KNEX } from '../database/database.module';
@@ -107,7 +108,7 @@ function fingerprint(
 ) {
   return JSON.stringify([
     reasonCode,
-    lines.map((l) => [l.account, l.side, money(l.amount).toFixed(2), l.sp ?? null]),
+    lines.map((l) => [l.account, l.side, toMoneyString(l.amount), l.sp ?? null]),
   ]);
 }
 
@@ -123,7 +124,7 @@ function linesOf(posting: Posting, accounts: Map<string, string>): NewLine[] | n
     lines.push({
       accountId,
       side: l.side,
-      amount: money(l.amount).toFixed(2),
+      amount: toMoneyString(l.amount),
       salespersonId: l.salespersonId ?? null,
     });
   }
@@ -504,9 +505,9 @@ export class LedgerService {
       from: q.from ?? null,
       to: q.to ?? null,
       openingBalance,
-      closingBalance: closing.isZero() ? '0.00' : closing.toFixed(2),
-      debitTotal: money(inRange.debits).toFixed(2),
-      creditTotal: money(inRange.credits).toFixed(2),
+      closingBalance: closing.isZero() ? '0.00' : toMoneyString(closing),
+      debitTotal: toMoneyString(inRange.debits),
+      creditTotal: toMoneyString(inRange.credits),
       lines: lines.map((l) => ({ ...l, reasonLabel: reasonLabel(l.reasonCode) })),
       total,
       page,
@@ -634,6 +635,6 @@ export class LedgerService {
       db,
     );
     const credit = money(net).negated();
-    return credit.isZero() ? '0.00' : credit.toFixed(2);
+    return credit.isZero() ? '0.00' : toMoneyString(credit);
   }
 }

@@ -1,6 +1,13 @@
 import { Injectable, Logger } from '@nestjs/common';
 import type { Knex } from 'knex';
-import { contractBalance, jobCompleted, money, MoneyDecimal, todayInZone } from '@loambook/common';
+import {
+  contractBalance,
+  jobCompleted,
+  money,
+  MoneyDecimal,
+  todayInZone,
+  toMoneyString,
+} from '@loambook/common';
 import type { JobCompletedEvent, JobCompletedHandler } from '../field/job-completed';
 import { DomainError } from '../common/domain-error';
 import { LeadsService } from '../leads/leads.service';
@@ -37,7 +44,7 @@ export class PaymentsCompletionHandler implements JobCompletedHandler {
     const b = contractBalance(c.price, await this.repo.movements(c.id, trx));
     const held = MoneyDecimal.max(0, MoneyDecimal.min(money(b.depositHeld), money(c.price)));
     const { created } = await this.ledger.post(
-      jobCompleted({ contractPrice: c.price, depositsHeld: held.toFixed(2) }),
+      jobCompleted({ contractPrice: c.price, depositsHeld: toMoneyString(held) }),
       {
         branchId: c.branchId,
         idempotencyKey: `job.completed:${e.jobId}`,

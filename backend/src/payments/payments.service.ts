@@ -29,6 +29,7 @@ import {
   type RecordPaymentRequest,
   type RefundRequest,
   type RefundView,
+  toMoneyString,
 } from '@loambook/common';
 import { APP_CONFIG, type AppConfig } from '../config/config';
 import { KNEX } from '../database/database.module';
@@ -136,7 +137,7 @@ export class PaymentsService {
       refunded: b.refunded,
       depositHeld: b.depositHeld,
       balanceDue: c.cancelledAt ? '0.00' : b.balanceDue,
-      refundable: c.cancelledAt ? refundable.toFixed(2) : '0.00',
+      refundable: c.cancelledAt ? toMoneyString(refundable) : '0.00',
       requests,
       payments,
       refunds,
@@ -152,7 +153,7 @@ export class PaymentsService {
       return depositWarning({
         state: c.state,
         contractPrice: c.price,
-        initialPayment: initial.toFixed(2),
+        initialPayment: toMoneyString(initial),
         signedOn: c.signedOn,
       });
     } catch {
@@ -391,7 +392,7 @@ export class PaymentsService {
           },
         );
       }
-      const amountText = amount.toFixed(2);
+      const amountText = toMoneyString(amount);
       const posting =
         dto.kind === 'deposit'
           ? depositReceivedToBank({ amount: amountText, method: dto.method })
@@ -490,7 +491,7 @@ export class PaymentsService {
         refund = await stripe.refunds.create(
           {
             charge: p.chargeId,
-            amount: sdkMinorUnits(part.toFixed(2)),
+            amount: sdkMinorUnits(toMoneyString(part)),
             reason: 'requested_by_customer',
             metadata: { contractId: c.id, branchId: c.branchId, paymentId: p.id, requestedBy: user.id },
           },

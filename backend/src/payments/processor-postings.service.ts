@@ -16,6 +16,7 @@ import {
   type Money,
   type PaymentKind,
   type Posting,
+  toMoneyString,
 } from '@loambook/common';
 import type { Knex } from 'knex';
 import { LedgerService, type PostSource } from '../ledger/ledger.service';
@@ -419,7 +420,7 @@ export class ProcessorPostings {
     }
     if (!total.equals(money(fromMinorUnits(payout.amount)))) {
       throw new Error(
-        `Payout ${payout.id} is ${fromMinorUnits(payout.amount)} but its transactions net ${total.toFixed(2)}.`,
+        `Payout ${payout.id} is ${fromMinorUnits(payout.amount)} but its transactions net ${toMoneyString(total)}.`,
       );
     }
     await this.repo.insertPayoutItems(payoutRowId, items, trx);
@@ -443,9 +444,9 @@ export class ProcessorPostings {
         {
           payoutId: payoutRowId,
           branchId,
-          gross: b.gross.toFixed(2),
-          fee: b.fee.toFixed(2),
-          net: b.net.toFixed(2),
+          gross: toMoneyString(b.gross),
+          fee: toMoneyString(b.fee),
+          net: toMoneyString(b.net),
           itemCount: b.count,
           journalEntryId,
         },
@@ -462,8 +463,8 @@ export class ProcessorPostings {
  */
 function payoutPosting(net: Money, payoutId: string): Posting {
   const memo = `Processor payout ${payoutId}`;
-  if (net.greaterThan(0)) return processorPayout({ amount: net.toFixed(2), memo });
-  const amount = net.negated().toFixed(2);
+  if (net.greaterThan(0)) return processorPayout({ amount: toMoneyString(net), memo });
+  const amount = toMoneyString(net.negated());
   return {
     reasonCode: 'processor.payout',
     lines: [
