@@ -487,20 +487,22 @@ export class CommissionsRepository {
     return r.rows.map((x) => x.id);
   }
 
+  /** Commission lines with the columns lineFrom reads. */
+  private lineQuery(db: Db) {
+    return db('commission_lines').select(
+      'id',
+      'salesperson_id',
+      'branch_id',
+      'milestone',
+      'kind',
+      'amount',
+      'statement_id',
+      db.raw(`${DATE('effective_on')} as effective_on`),
+    );
+  }
+
   async lines(contractId: string, db: Db = this.knex): Promise<LineRow[]> {
-    const rows = (await db('commission_lines')
-      .where({ contract_id: contractId })
-      .orderBy('created_at')
-      .select(
-        'id',
-        'salesperson_id',
-        'branch_id',
-        'milestone',
-        'kind',
-        'amount',
-        'statement_id',
-        db.raw(`${DATE('effective_on')} as effective_on`),
-      )) as Row[];
+    const rows = (await this.lineQuery(db).where({ contract_id: contractId }).orderBy('created_at')) as Row[];
     return rows.map(lineFrom);
   }
 
@@ -545,39 +547,19 @@ export class CommissionsRepository {
     upTo: string,
     db: Db = this.knex,
   ): Promise<LineRow[]> {
-    const rows = (await db('commission_lines')
+    const rows = (await this.lineQuery(db)
       .where({ salesperson_id: salespersonId, branch_id: branchId })
       .whereNull('statement_id')
       .where('effective_on', '<=', upTo)
-      .orderBy(['effective_on', 'created_at'])
-      .select(
-        'id',
-        'salesperson_id',
-        'branch_id',
-        'milestone',
-        'kind',
-        'amount',
-        'statement_id',
-        db.raw(`${DATE('effective_on')} as effective_on`),
-      )) as Row[];
+      .orderBy(['effective_on', 'created_at'])) as Row[];
     return rows.map(lineFrom);
   }
 
   async linesOnStatements(ids: string[], db: Db = this.knex): Promise<LineRow[]> {
     if (ids.length === 0) return [];
-    const rows = (await db('commission_lines')
+    const rows = (await this.lineQuery(db)
       .whereIn('statement_id', ids)
-      .orderBy(['effective_on', 'created_at'])
-      .select(
-        'id',
-        'salesperson_id',
-        'branch_id',
-        'milestone',
-        'kind',
-        'amount',
-        'statement_id',
-        db.raw(`${DATE('effective_on')} as effective_on`),
-      )) as Row[];
+      .orderBy(['effective_on', 'created_at'])) as Row[];
     return rows.map(lineFrom);
   }
 
