@@ -5,6 +5,7 @@ export default defineConfig({
   test: {
     root: import.meta.dirname,
     include: ['**/*.spec.ts'],
+    setupFiles: ['./setup.ts'],
     environment: 'node',
     fileParallelism: false,
     testTimeout: 120_000,

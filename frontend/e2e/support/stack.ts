@@ -1,5 +1,5 @@
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import net from 'node:net';
 import path from 'node:path';
@@ -112,6 +112,23 @@ export interface Stack {
   close(): Promise<void>;
 }
 
+/** The stack of the journey now running, for the screenshots taken when a test fails (e2e/setup.ts). */
+let running: Stack | null = null;
+
+/**
+ * A full-page screenshot of every page still open, named `FAILED-…`: a failed poll says only "expected
+ * false to be true", the page says why. Called by e2e/setup.ts when a test fails.
+ */
+export async function shootOpenPages(): Promise<void> {
+  if (!running) return;
+  const pages = running.browser.contexts().flatMap((c) => c.pages());
+  for (const [i, page] of pages.entries()) {
+    const file = path.join(running.shotsDir, `FAILED-${i + 1}.png`);
+    await page.screenshot({ path: file, fullPage: true, timeout: 10_000 }).catch(() => undefined);
+    console.log(`A page open when the test failed (${page.url()}): ${file}`);
+  }
+}
+
 /** Test keys of the journeys' own processor fake (apart from npm start's, scripts/lib/env.mjs). */
 const STRIPE_SECRET_KEY = 'sk_test_loambook_e2e';
 const STRIPE_WEBHOOK_SECRET = 'whsec_loambook_e2e_not_a_real_secret';
@@ -194,9 +211,10 @@ export async function startStack(journey: string): Promise<Stack> {
   });
   const shotsDir = path.join(REPO, 'frontend', 'e2e', '.screenshots', journey);
   mkdirSync(shotsDir, { recursive: true });
+  for (const old of readdirSync(shotsDir)) if (old.startsWith('FAILED-')) rmSync(path.join(shotsDir, old));
   let n = 0;
 
-  return {
+  const stack: Stack = {
     baseUrl,
     database,
     mail,
@@ -229,9 +247,12 @@ export async function startStack(journey: string): Promise<Stack> {
       await s3.close().catch(() => undefined);
       rmSync(s3Dir, { recursive: true, force: true });
       if (!process.env.KEEP_TEST_DB) await dropDatabase(database);
+      if (running === stack) running = null;
       console.log(`Screenshots of the "${journey}" journey: ${shotsDir}`);
     },
   };
+  running = stack;
+  return stack;
 }
 
 async function waitForHealth(baseUrl: string, server: ChildProcess): Promise<void> {
