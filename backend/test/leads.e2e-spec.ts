@@ -64,6 +64,13 @@ describe('leads and the pipeline', () => {
     ...over,
   });
 
+  /** A lead entered through the API by the holder of `token` (a user made in the test itself). */
+  async function postLead(token: string, over: Record<string, unknown>) {
+    const res = await t.http.post('/api/leads').set('Authorization', `Bearer ${token}`).send(leadInput(over));
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    return res.body.lead as { id: string };
+  }
+
   async function createLead(who: keyof typeof tokens = 'seller', over: Record<string, unknown> = {}) {
     const res = await as(who).post('/api/leads', leadInput(over));
     expect(res.status, JSON.stringify(res.body)).toBe(201);
@@ -151,17 +158,11 @@ describe('leads and the pipeline', () => {
     const mgr = await tokenFor(t, await makeUser(t.db, 'branch_manager', [branch]));
     const sp = await makeUser(t.db, 'salesperson', [branch]);
     for (let i = 0; i < 7; i++) {
-      const res = await t.http
-        .post('/api/leads')
-        .set('Authorization', `Bearer ${mgr}`)
-        .send(
-          leadInput({
-            branchId: branch,
-            salespersonId: sp.id,
-            homeownerName: i === 3 ? 'Quillon Vasquez' : `Pipe ${i}`,
-          }),
-        );
-      expect(res.status).toBe(201);
+      await postLead(mgr, {
+        branchId: branch,
+        salespersonId: sp.id,
+        homeownerName: i === 3 ? 'Quillon Vasquez' : `Pipe ${i}`,
+      });
     }
     await t.db('leads').where({ branch_id: branch }).update({ value: '1000.50' });
     await t
@@ -190,6 +191,109 @@ describe('leads and the pipeline', () => {
     expect((await get('minValue=5000')).body.total).toBe(1);
     expect((await get('minAgeDays=1')).body.total).toBe(0);
     expect((await get('pageSize=7')).status).toBe(400);
+  });
+
+  it('each pipeline filter and sort gives what a plain reading of the same leads gives', async () => {
+    const branch = await makeBranch(t.db, { name: 'Filters' });
+    const mgr = await tokenFor(t, await makeUser(t.db, 'branch_manager', [branch]));
+    const sp1 = await makeUser(t.db, 'salesperson', [branch]);
+    const sp2 = await makeUser(t.db, 'salesperson', [branch]);
+    const stages = ['new', 'inspected', 'proposal_sent', 'lost'] as const;
+    for (let i = 0; i < 12; i++) {
+      const lead = await postLead(mgr, {
+        branchId: branch,
+        salespersonId: i % 3 === 0 ? sp2.id : sp1.id,
+        homeownerName: `Filter ${String.fromCharCode(65 + i)} ${i % 4 === 0 ? 'Oakhollow' : 'Pell'}`,
+        phonePrimary: `555-01${String(10 + i)}`,
+      });
+      await t
+        .db('leads')
+        .where({ id: lead.id })
+        .update({
+          stage: stages[i % 4],
+          lost_reason: stages[i % 4] === 'lost' ? 'No answer' : null,
+          value: `${(i * 1250.25).toFixed(2)}`,
+          created_at: t.db.raw(`now() - make_interval(days => ?)`, [i * 3]),
+          stage_changed_at: t.db.raw(`now() - make_interval(days => ?, hours => ?)`, [i, i]),
+        });
+    }
+    // The reference: the branch's leads as stored, filtered and sorted here in plain code.
+    type Stored = {
+      id: string;
+      name: string;
+      stage: string;
+      value: string;
+      sp: string;
+      ageDays: number;
+      phone: string;
+      stageAt: Date;
+    };
+    const stored: Stored[] = (
+      await t.db.raw(
+        `select id, homeowner_name as name, stage, value::text as value, salesperson_id as sp, phone_primary as phone,
+                floor(extract(epoch from now() - created_at) / 86400)::int as "ageDays", stage_changed_at as "stageAt"
+         from leads where branch_id = ?`,
+        [branch],
+      )
+    ).rows;
+    // Money as whole cents in BigInt (both sides write two decimals), never a float.
+    const cents = (v: string) => BigInt(v.replace('.', ''));
+    // [query, the stage filter, every other filter]: per-stage totals leave the stage filter out.
+    const cases: [string, string[] | null, (l: Stored) => boolean][] = [
+      ['', null, () => true],
+      ['stage=inspected,lost', ['inspected', 'lost'], () => true],
+      [`salespersonId=${sp2.id}`, null, (l) => l.sp === sp2.id],
+      ['minAgeDays=10', null, (l) => l.ageDays >= 10],
+      ['maxAgeDays=10', null, (l) => l.ageDays <= 10],
+      ['minValue=5000&maxValue=10001', null, (l) => cents(l.value) >= 500000n && cents(l.value) <= 1000100n],
+      ['q=oakhollow', null, (l) => l.name.includes('Oakhollow')],
+      ['q=555-0115', null, (l) => l.phone === '555-0115'],
+      [
+        `q=pell&stage=new&salespersonId=${sp1.id}`,
+        ['new'],
+        (l) => l.name.includes('Pell') && l.sp === sp1.id,
+      ],
+    ];
+    for (const [qs, stageFilter, keep] of cases) {
+      const res = await t.http
+        .get(`/api/leads?branchId=${branch}&pageSize=100&sort=value&order=desc&${qs}`)
+        .set('Authorization', `Bearer ${mgr}`);
+      expect(res.status, qs).toBe(200);
+      const expected = stored
+        .filter((l) => keep(l) && (!stageFilter || stageFilter.includes(l.stage)))
+        .sort((x, y) => (cents(y.value) > cents(x.value) ? 1 : cents(y.value) < cents(x.value) ? -1 : 0));
+      expect(
+        res.body.items.map((l: { id: string }) => l.id),
+        qs,
+      ).toEqual(expected.map((l) => l.id));
+      expect(res.body.total, qs).toBe(expected.length);
+      const totals = new Map<string, { stage: string; count: number; value: bigint }>();
+      for (const l of stored.filter(keep)) {
+        const s = totals.get(l.stage) ?? { stage: l.stage, count: 0, value: 0n };
+        totals.set(l.stage, { stage: l.stage, count: s.count + 1, value: s.value + cents(l.value) });
+      }
+      expect(
+        res.body.stages
+          .map((s: { stage: string; count: number; value: string }) => ({ ...s, value: cents(s.value) }))
+          .sort((x: { stage: string }, y: { stage: string }) => x.stage.localeCompare(y.stage)),
+        qs,
+      ).toEqual([...totals.values()].sort((x, y) => x.stage.localeCompare(y.stage)));
+    }
+    // Sorting by days in stage, both ways, pages of 10.
+    const byStage = [...stored].sort((a, b) => a.stageAt.getTime() - b.stageAt.getTime());
+    const asc = await t.http
+      .get(`/api/leads?branchId=${branch}&pageSize=10&page=2&sort=daysInStage&order=asc`)
+      .set('Authorization', `Bearer ${mgr}`);
+    expect(asc.body.items.map((l: { id: string }) => l.id)).toEqual(byStage.slice(10).map((l) => l.id));
+    const desc = await t.http
+      .get(`/api/leads?branchId=${branch}&pageSize=10&sort=daysInStage&order=desc`)
+      .set('Authorization', `Bearer ${mgr}`);
+    expect(desc.body.items.map((l: { id: string }) => l.id)).toEqual(
+      [...byStage]
+        .reverse()
+        .slice(0, 10)
+        .map((l) => l.id),
+    );
   });
 
   it('a salesperson’s pipeline holds only their own leads', async () => {

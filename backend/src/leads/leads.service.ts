@@ -67,7 +67,7 @@ export class LeadsService {
       q: q.q?.trim() || undefined,
       approvalPending: q.approvalPending === undefined ? undefined : q.approvalPending === 'true',
       sort: q.sort ?? 'daysInStage',
-      order: q.order ?? (q.sort === 'homeowner' || q.sort === 'stage' ? 'asc' : 'asc'),
+      order: q.order ?? 'asc',
       limit: pageSize,
       offset: (page - 1) * pageSize,
     });
