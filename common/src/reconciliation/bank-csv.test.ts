@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { ReconciliationError } from './errors';
 import {
+  dateFormatsFitting,
   parseBankAmount,
   parseBankCsv,
   parseBankDate,
@@ -225,5 +226,29 @@ describe('suggestColumnMapping', () => {
     expect(s.dateFormatCandidates).toEqual(['YYYY-MM-DD', 'MM/DD/YYYY', 'DD/MM/YYYY']);
     const ambiguous = suggestColumnMapping(['Date'], [['07/09/2026']]);
     expect(ambiguous.dateFormatCandidates).toEqual(['MM/DD/YYYY', 'DD/MM/YYYY']);
+  });
+
+  // The formats a column chosen by hand fits. Dates per ISO 8601 (YYYY-MM-DD) and the two slash orders
+  // banks export; 31/12 can only be day-first, 12/31 only month-first, 07/09 either (common practice).
+  it.each([
+    [[['2026-11-04'], ['2026-11-30']], ['YYYY-MM-DD']],
+    [[['11/04/2026'], ['11/30/2026']], ['MM/DD/YYYY']],
+    [[['04/11/2026'], ['30/11/2026']], ['DD/MM/YYYY']],
+    [
+      [['12/06/2026'], ['12/07/2026']],
+      ['MM/DD/YYYY', 'DD/MM/YYYY'],
+    ],
+    [
+      [['12/06/2026'], [''], ['12/07/2026']],
+      ['MM/DD/YYYY', 'DD/MM/YYYY'],
+    ], // an empty cell reads as nothing
+    [[['PAYOUT'], ['12/07/2026']], []],
+    [[['02/30/2026']], []], // no 30 February in either order
+    [
+      [[''], ['']],
+      ['YYYY-MM-DD', 'MM/DD/YYYY', 'DD/MM/YYYY'],
+    ],
+  ] as const)('dateFormatsFitting(%j)', (rows, expected) => {
+    expect(dateFormatsFitting(rows, 0)).toEqual(expected);
   });
 });

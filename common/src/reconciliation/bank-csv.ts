@@ -161,6 +161,16 @@ function checkMapping(mapping: BankCsvMapping): void {
 const cellAt = (row: readonly string[], c: number): string => (row[c] ?? '').trim();
 
 /**
+ * The date formats every non-empty cell of `column` in `rows` fits, in BANK_DATE_FORMATS order: all three
+ * when the column holds nothing to read, none when some cell is not a date in any of them. `rows` are
+ * transactions only (no header row).
+ */
+export function dateFormatsFitting(rows: readonly (readonly string[])[], column: number): BankDateFormat[] {
+  const cells = rows.map((r) => cellAt(r, column)).filter((c) => c !== '');
+  return BANK_DATE_FORMATS.filter((f) => cells.every((cell) => parseBankDate(cell, f) !== null));
+}
+
+/**
  * Bank lines from the rows of a bank statement CSV (already split by csv-parse) and the column mapping;
  * a bad cell gives an error with the row number instead of a line. Throws ReconciliationError on a
  * malformed mapping.
@@ -392,9 +402,8 @@ export function suggestColumnMapping(
 
   const samples =
     dateColumn === null ? [] : sampleRows.map((r) => cellAt(r, dateColumn)).filter((c) => c !== '');
-  const dateFormatCandidates = BANK_DATE_FORMATS.filter((f) =>
-    samples.every((cell) => parseBankDate(cell, f) !== null),
-  );
+  const dateFormatCandidates =
+    dateColumn === null ? [...BANK_DATE_FORMATS] : dateFormatsFitting(sampleRows, dateColumn);
   return {
     hasHeaderRow: dateColumn !== null || amount !== null || descriptionColumn !== null,
     dateColumn,

@@ -6,6 +6,7 @@ export {
   BANK_CSV_PARSE_OPTIONS,
   BANK_CSV_ROW_ERROR_CODES,
   BANK_DATE_FORMATS,
+  dateFormatsFitting,
   parseBankAmount,
   parseBankCsv,
   parseBankDate,

@@ -1,4 +1,4 @@
-import type { BankCsvMapping, BankDateFormat } from '@loambook/common';
+import type { BankCsvMapping, BankCsvMappingSuggestion, BankDateFormat } from '@loambook/common';
 
 /** The column choice as the form holds it: anything may still be missing. */
 export interface MappingDraft {
@@ -45,6 +45,34 @@ export function draftFrom(mapping: BankCsvMapping | null): MappingDraft {
     dateFormat: mapping.dateFormat,
   };
 }
+
+/**
+ * The start of the form when the server had no whole mapping: the columns its guess did find (say the
+ * description and the debit and credit columns, but no date column), so the bookkeeper chooses only the rest.
+ */
+export function draftFromSuggestion(s: BankCsvMappingSuggestion): MappingDraft {
+  return {
+    hasHeaderRow: s.hasHeaderRow,
+    dateColumn: s.dateColumn,
+    descriptionColumn: s.descriptionColumn,
+    amountKind: s.amount?.kind ?? 'signed',
+    amountColumn: s.amount?.kind === 'signed' ? s.amount.column : null,
+    debitColumn: s.amount?.kind === 'debit_credit' ? s.amount.debitColumn : null,
+    creditColumn: s.amount?.kind === 'debit_credit' ? s.amount.creditColumn : null,
+    dateFormat: s.dateFormat,
+  };
+}
+
+/** Whether the guess found any column at all. */
+export const guessedAnything = (s: BankCsvMappingSuggestion) =>
+  s.dateColumn !== null || s.descriptionColumn !== null || s.amount !== null;
+
+/** The short names of the date formats, for sentences ("month/day/year or day/month/year"). */
+export const DATE_FORMAT_NAMES: Record<BankDateFormat, string> = {
+  'YYYY-MM-DD': 'year-month-day',
+  'MM/DD/YYYY': 'month/day/year',
+  'DD/MM/YYYY': 'day/month/year',
+};
 
 /**
  * The mapping the draft makes, or what is missing or wrong, by field (the same rules the server applies:

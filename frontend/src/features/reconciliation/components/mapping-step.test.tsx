@@ -3,7 +3,14 @@ import { describe, expect, it } from 'vitest';
 import { render, screen, within } from '@testing-library/react';
 import userEventBase from '@testing-library/user-event';
 import type { BankStatementPreview } from '@loambook/common';
-import { draftFrom, EMPTY_DRAFT, mappingFrom, type MappingDraft, type MappingField } from '../mapping-draft';
+import {
+  draftFrom,
+  draftFromSuggestion,
+  EMPTY_DRAFT,
+  mappingFrom,
+  type MappingDraft,
+  type MappingField,
+} from '../mapping-draft';
 import { PREVIEW } from '../testing/fixtures';
 import { MappingStep } from './mapping-step';
 
@@ -83,22 +90,85 @@ describe('mapping step', () => {
     ).toBeGreaterThan(0);
   });
 
-  it('asks for a choice when the dates fit two formats', () => {
-    const ambiguous: BankStatementPreview = {
-      ...PREVIEW,
-      suggestion: {
-        ...PREVIEW.suggestion,
-        dateFormat: null,
-        dateFormatCandidates: ['MM/DD/YYYY', 'DD/MM/YYYY'],
-      },
-      mapping: null,
-      mappingSource: null,
-    };
-    render(<Harness preview={ambiguous} start={{ ...EMPTY_DRAFT, dateColumn: 0 }} />);
+  // Column names no guess knows, and dates that read both ways (12/06 is 6 December or 12 June).
+  const unnamed: BankStatementPreview = {
+    ...PREVIEW,
+    rows: [
+      ['Posted', 'Payee', 'Out', 'In'],
+      ['12/06/2026', 'MARROWFIELD WATER DEPT', '86.40', ''],
+      ['12/07/2026', 'CARD PROCESSOR TRANSFER', '', '631.82'],
+    ],
+    suggestion: {
+      hasHeaderRow: false,
+      dateColumn: null,
+      descriptionColumn: null,
+      amount: null,
+      dateFormat: null,
+      dateFormatCandidates: ['YYYY-MM-DD', 'MM/DD/YYYY', 'DD/MM/YYYY'],
+    },
+    mapping: null,
+    mappingSource: null,
+  };
+
+  it('asks for a choice when the dates of the column chosen by hand fit two formats', async () => {
+    const seen: MappingDraft[] = [];
+    render(<Harness preview={unnamed} start={draftFromSuggestion(unnamed.suggestion)} seen={seen} />);
     expect(screen.getByText(/column names were not recognised/)).toBeInTheDocument();
+    await userEvent.click(screen.getByLabelText(/The first row holds the column names/));
+    await userEvent.click(screen.getByLabelText('Date column'));
+    await userEvent.click(await screen.findByRole('option', { name: 'A · Posted', ...visibleList }));
+    expect(seen.at(-1)).toMatchObject({ dateColumn: 0, dateFormat: null });
     expect(screen.getByLabelText('Dates are written')).toHaveAccessibleDescription(
-      /reads as MM\/DD\/YYYY or as DD\/MM\/YYYY: choose the one your bank uses/,
+      'Every date shown reads as month/day/year or as day/month/year: choose the one your bank uses.',
     );
+  });
+
+  it('chooses the date format with a date column whose dates fit one format only', async () => {
+    const seen: MappingDraft[] = [];
+    const dayFirst = {
+      ...unnamed,
+      rows: [unnamed.rows[0]!, ['31/12/2026', 'X', '1.00', ''], ['13/12/2026', 'Y', '', '2.00']],
+    };
+    render(
+      <Harness
+        preview={dayFirst}
+        start={{ ...draftFromSuggestion(unnamed.suggestion), hasHeaderRow: true }}
+        seen={seen}
+      />,
+    );
+    expect(screen.getByLabelText('Dates are written')).not.toHaveAccessibleDescription(/reads as/);
+    await userEvent.click(screen.getByLabelText('Date column'));
+    await userEvent.click(await screen.findByRole('option', { name: 'A · Posted', ...visibleList }));
+    expect(seen.at(-1)).toMatchObject({ dateColumn: 0, dateFormat: 'DD/MM/YYYY' });
+  });
+
+  it('keeps the columns a partial guess found and says so', () => {
+    const partial: BankStatementPreview = {
+      ...unnamed,
+      suggestion: {
+        ...unnamed.suggestion,
+        hasHeaderRow: true,
+        descriptionColumn: 1,
+        amount: { kind: 'debit_credit', debitColumn: 2, creditColumn: 3 },
+      },
+    };
+    const start = draftFromSuggestion(partial.suggestion);
+    expect(start).toEqual({
+      hasHeaderRow: true,
+      dateColumn: null,
+      descriptionColumn: 1,
+      amountKind: 'debit_credit',
+      amountColumn: null,
+      debitColumn: 2,
+      creditColumn: 3,
+      dateFormat: null,
+    });
+    render(<Harness preview={partial} start={start} />);
+    expect(screen.getByText(/Some column names were recognised/)).toBeInTheDocument();
+    const headers = within(screen.getByRole('table'))
+      .getAllByRole('columnheader')
+      .map((h) => h.textContent);
+    expect(headers).toEqual(['Row', 'A Posted', 'B PayeeDescription', 'C OutMoney out', 'D InMoney in']);
   });
 
   it('shows errors on the fields they belong to', () => {

@@ -2,13 +2,20 @@ import { Checkbox } from 'primereact/checkbox';
 import { Message } from 'primereact/message';
 import { RadioButton } from 'primereact/radiobutton';
 import { Tag } from 'primereact/tag';
-import { BANK_DATE_FORMATS, type BankDateFormat, type BankStatementPreview } from '@loambook/common';
+import {
+  BANK_DATE_FORMATS,
+  dateFormatsFitting,
+  type BankDateFormat,
+  type BankStatementPreview,
+} from '@loambook/common';
 import { FormField } from '@/components/form-field';
 import { Select } from '@/components/select';
 import {
   columnLabel,
   columnLetter,
   DATE_FORMAT_LABELS,
+  DATE_FORMAT_NAMES,
+  guessedAnything,
   type MappingDraft,
   type MappingField,
 } from '../mapping-draft';
@@ -43,22 +50,38 @@ function roleOf(draft: MappingDraft, column: number): string | null {
  * and whether the first row names the columns.
  */
 export function MappingStep({ preview, draft, onChange, errors }: MappingStepProps) {
-  const set = <K extends keyof MappingDraft>(key: K, value: MappingDraft[K]) =>
-    onChange({ ...draft, [key]: value });
+  const set = <K extends keyof MappingDraft>(key: K, value: MappingDraft[K]) => {
+    const next = { ...draft, [key]: value };
+    // A date column chosen by hand whose dates fit one format only: that format is chosen with it.
+    if (key === 'dateColumn' && next.dateColumn !== null && next.dateFormat === null) {
+      const only = dateFormatsFitting(
+        next.hasHeaderRow ? preview.rows.slice(1) : preview.rows,
+        next.dateColumn,
+      );
+      if (only.length === 1) next.dateFormat = only[0]!;
+    }
+    onChange(next);
+  };
   const columns = Array.from({ length: preview.columnCount }, (_, i) => i);
   const options = columns.map((i) => ({ label: columnLabel(preview.rows, i, draft.hasHeaderRow), value: i }));
   const withNone = [{ label: 'None', value: -1 }, ...options];
-  const fits = preview.suggestion.dateFormatCandidates;
+  const body = draft.hasHeaderRow ? preview.rows.slice(1) : preview.rows;
+  const firstRowNumber = draft.hasHeaderRow ? 2 : 1;
+  // The formats the chosen date column's cells fit, in the rows shown (the server reads the whole file).
+  const fits: readonly BankDateFormat[] =
+    draft.dateColumn === null ? BANK_DATE_FORMATS : dateFormatsFitting(body, draft.dateColumn);
   const formatOptions = BANK_DATE_FORMATS.map((f) => ({
     label: `${DATE_FORMAT_LABELS[f]}${fits.includes(f) ? '' : ' — does not fit these dates'}`,
     value: f,
   }));
   const formatHint =
-    fits.length > 1 && draft.dateColumn !== null
-      ? `Every date in the file reads as ${fits.join(' or as ')}: choose the one your bank uses.`
-      : fits.length === 0
-        ? 'No format fits every date in the column chosen: check the date column.'
-        : undefined;
+    draft.dateColumn === null
+      ? undefined
+      : fits.length > 1
+        ? `Every date shown reads as ${fits.map((f) => DATE_FORMAT_NAMES[f]).join(' or as ')}: choose the one your bank uses.`
+        : fits.length === 0
+          ? 'No format fits every date in the column chosen: check the date column.'
+          : undefined;
   const select = (
     field: MappingField,
     label: string,
@@ -82,9 +105,6 @@ export function MappingStep({ preview, draft, onChange, errors }: MappingStepPro
     </FormField>
   );
 
-  const body = draft.hasHeaderRow ? preview.rows.slice(1) : preview.rows;
-  const firstRowNumber = draft.hasHeaderRow ? 2 : 1;
-
   return (
     <section className="mapping-step" aria-labelledby="mapping-title">
       <h2 id="mapping-title" className="section-title">
@@ -92,6 +112,11 @@ export function MappingStep({ preview, draft, onChange, errors }: MappingStepPro
       </h2>
       {preview.mappingSource ? (
         <p className="mapping-step__note">{SOURCE_NOTE[preview.mappingSource]}</p>
+      ) : guessedAnything(preview.suggestion) ? (
+        <Message
+          severity="info"
+          text="Some column names were recognised and are chosen below: check them and choose the rest."
+        />
       ) : (
         <Message severity="info" text="The column names were not recognised: choose each column below." />
       )}

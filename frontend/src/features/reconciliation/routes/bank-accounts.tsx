@@ -13,7 +13,7 @@ import { TableSkeleton } from '@/components/loading';
 import { PageHeader } from '@/components/page-header';
 import { useAppAbility } from '@/features/auth/ability';
 import { useBranches } from '@/features/branches/api/get-branches';
-import { formatDateTime } from '@/lib/format';
+import { formatDateTime, localToday } from '@/lib/format';
 import { useBankAccounts } from '../api/get-bank-accounts';
 import { useBankStatements } from '../api/get-bank-statements';
 import { NewBankAccountDialog } from '../components/new-bank-account-dialog';
@@ -29,7 +29,7 @@ export default function BankAccountsRoute() {
   const mayCreate = ability.can('create', 'Reconciliation');
 
   const actions = (a: BankAccount) => {
-    const month = monthOf(a.statementsThrough ?? new Date().toISOString().slice(0, 10));
+    const month = monthOf(a.statementsThrough ?? localToday());
     return (
       <div className="row-actions">
         {mayCreate ? (

@@ -17,6 +17,7 @@ import { PageHeader } from '@/components/page-header';
 import { Select } from '@/components/select';
 import { useAppAbility } from '@/features/auth/ability';
 import { isApiError } from '@/lib/api-client';
+import { localToday } from '@/lib/format';
 import { useConfirmMatch } from '../api/confirm-match';
 import { useBankAccounts } from '../api/get-bank-accounts';
 import { useReconciliation } from '../api/get-reconciliation';
@@ -78,7 +79,7 @@ export default function ReconciliationRoute() {
   const list = accounts.data ?? [];
   const accountId = params.get('account') ?? list[0]?.id ?? null;
   const account = list.find((a) => a.id === accountId) ?? null;
-  const defaults = monthOf(account?.statementsThrough ?? new Date().toISOString().slice(0, 10));
+  const defaults = monthOf(account?.statementsThrough ?? localToday());
   const from = isCalendarDay(params.get('from')) ? params.get('from')! : defaults.from;
   const to = isCalendarDay(params.get('to')) ? params.get('to')! : defaults.to;
   const rangeError = from > to ? 'The period ends before it starts.' : null;

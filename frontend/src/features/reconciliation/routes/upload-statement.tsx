@@ -24,6 +24,7 @@ import { MappingStep } from '../components/mapping-step';
 import { RowErrors } from '../components/row-errors';
 import {
   draftFrom,
+  draftFromSuggestion,
   mappingFieldOf,
   mappingFrom,
   type MappingDraft,
@@ -92,7 +93,7 @@ export default function UploadStatementRoute() {
       },
       {
         onSuccess: (p) => {
-          setDraft(draftFrom(p.mapping));
+          setDraft(p.mapping ? draftFrom(p.mapping) : draftFromSuggestion(p.suggestion));
           if (p.mapping)
             queryClient.setQueryData(statementCheckQueryOptions(file, accountId, p.mapping).queryKey, p);
         },
