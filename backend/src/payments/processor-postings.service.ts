@@ -3,6 +3,7 @@ import type Stripe from 'stripe';
 import {
   ACCOUNTS,
   balancePaidByCard,
+  cardBrandName,
   contractBalance,
   depositCapturedByCard,
   formatUsd,
@@ -140,7 +141,7 @@ export class ProcessorPostings {
     }
     const receivedOn = dayIn(contract.timezone, charge.created);
     const card = charge.payment_method_details?.card ?? null;
-    const cardText = card ? ` (${card.brand ?? 'card'} •••• ${card.last4 ?? '????'})` : '';
+    const cardText = card ? ` (${cardBrandName(card.brand)} •••• ${card.last4 ?? '????'})` : '';
     const posting: Posting =
       kind === 'deposit'
         ? depositCapturedByCard({ gross, fee, memo: `Card deposit${cardText}, charge ${charge.id}` })
@@ -204,10 +205,14 @@ export class ProcessorPostings {
 
   /**
    * What follows a payment. A deposit: once the deposits cover the contract's deposit, the contract's
-   * deposit_received_at is set and the lead moves along. A balance payment (or any payment once the job
-   * is completed): the lead moves along, and on to paid in full when the payments less refunds now cover
-   * the price (LeadsService.settleIfPaid; JobsService.advanceLead stops at completed). The contract row is
-   * locked by the caller.
+   * deposit_received_at is set and the lead moves along. Any payment once the job is completed: the lead
+   * moves along, and on to paid in full when the payments less refunds now cover the price
+   * (LeadsService.settleIfPaid; JobsService.advanceLead stops at completed). A balance payment before the
+   * job is completed: of the facts the pipeline reads (LeadFacts) a payment changes only the money paid,
+   * which only the step from completed to paid in full looks at, so the lead can move only where nothing
+   * has moved it yet — still at contract signed on a contract asking no deposit (whose deposit counts as
+   * received). Elsewhere the lead's stage and facts are not read for it: three statements saved on half
+   * the webhook events. The contract row is locked by the caller.
    */
   async afterPayment(
     contract: PayableContract,
@@ -226,7 +231,7 @@ export class ProcessorPostings {
         }
       }
     }
-    if (kind === 'balance' || contract.jobCompleted) {
+    if (contract.jobCompleted || (kind === 'balance' && contract.leadStage === 'contract_signed')) {
       await this.jobs.advanceLead(contract.leadId, actorId, trx);
       await this.leads.settleIfPaid(contract.leadId, actorId, trx);
     }

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
+  cardBrandName,
   contractBalance,
   depositWarning,
   fromMinorUnits,
@@ -140,5 +141,24 @@ describe('shownPercent', () => {
     ['10.0000', '10'],
   ])('%s → %s', (value, shown) => {
     expect(shownPercent(value)).toBe(shown);
+  });
+});
+
+describe('card brand names', () => {
+  // Brand codes from the Stripe API reference (payment_method_details.card.brand; from memory), names as
+  // the networks write them.
+  it.each([
+    ['visa', 'Visa'],
+    ['mastercard', 'Mastercard'],
+    ['amex', 'American Express'],
+    ['diners', 'Diners Club'],
+    ['jcb', 'JCB'],
+    ['unionpay', 'UnionPay'],
+    ['unknown', 'Card'],
+    [null, 'Card'],
+    ['', 'Card'],
+    ['cartes_bancaires', 'Cartes bancaires'],
+  ])('%s → %s', (code, name) => {
+    expect(cardBrandName(code)).toBe(name);
   });
 });

@@ -168,3 +168,25 @@ export function depositWarning(input: {
 export function refundOwed(c: { cancelled: boolean; paid: string }): boolean {
   return c.cancelled && money(c.paid).greaterThan(0);
 }
+
+/**
+ * The card network's name as people write it, from the processor's brand code (Stripe API reference,
+ * `payment_method_details.card.brand`: amex, diners, discover, eftpos_au, jcb, link, mastercard, unionpay,
+ * visa, unknown — from memory). A code not in the list is shown with its first letter in capitals.
+ */
+const CARD_BRANDS: Record<string, string> = {
+  amex: 'American Express',
+  diners: 'Diners Club',
+  discover: 'Discover',
+  eftpos_au: 'eftpos Australia',
+  jcb: 'JCB',
+  link: 'Link',
+  mastercard: 'Mastercard',
+  unionpay: 'UnionPay',
+  visa: 'Visa',
+};
+
+export function cardBrandName(brand: string | null | undefined): string {
+  if (!brand || brand === 'unknown') return 'Card';
+  return CARD_BRANDS[brand] ?? brand.charAt(0).toUpperCase() + brand.slice(1).replace(/_/g, ' ');
+}

@@ -1,4 +1,5 @@
 import {
+  cardBrandName,
   formatUsd,
   type PaymentKind,
   type PaymentMethod,
@@ -28,7 +29,7 @@ export const REQUEST_STATUS: Record<
 /** How the money came: "Visa •••• 4242", "Cheque 1042", "Bank transfer". */
 export function methodText(p: Pick<PaymentView, 'method' | 'cardBrand' | 'cardLast4' | 'reference'>): string {
   if (p.method === 'card') {
-    const brand = p.cardBrand ? p.cardBrand.charAt(0).toUpperCase() + p.cardBrand.slice(1) : 'Card';
+    const brand = cardBrandName(p.cardBrand);
     return p.cardLast4 ? `${brand} •••• ${p.cardLast4}` : brand;
   }
   return p.reference ? `${METHOD_LABELS[p.method]} ${p.reference}` : METHOD_LABELS[p.method];
@@ -42,11 +43,3 @@ export function cleanAmount(typed: string): string {
 export const AMOUNT_PATTERN = /^\d{1,9}(\.\d{1,2})?$/;
 
 export const usd = (amount: string) => formatUsd(amount);
-
-/** Today as YYYY-MM-DD on this computer's calendar (a default for "received on"). */
-export function localToday(now: Date = new Date()): string {
-  const y = now.getFullYear();
-  const m = String(now.getMonth() + 1).padStart(2, '0');
-  const d = String(now.getDate()).padStart(2, '0');
-  return `${y}-${m}-${d}`;
-}
