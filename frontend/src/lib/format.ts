@@ -50,3 +50,11 @@ export function formatRecent(iso: string | null | undefined, fallback = '—'): 
     ? recentThisYear.format(ms)
     : dateTime.format(ms);
 }
+
+/** Today as YYYY-MM-DD on this computer's calendar (not UTC's, which is tomorrow in the US evening). */
+export function localToday(now: Date = new Date()): string {
+  const y = now.getFullYear();
+  const m = String(now.getMonth() + 1).padStart(2, '0');
+  const d = String(now.getDate()).padStart(2, '0');
+  return `${y}-${m}-${d}`;
+}

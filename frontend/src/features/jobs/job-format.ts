@@ -8,6 +8,7 @@ import {
   type JobStatus,
   type StopReason,
 } from '@loambook/common';
+import { localToday } from '@/lib/format';
 
 export const STATUS_LABELS: Record<JobStatus, string> = {
   unscheduled: 'Not scheduled',
@@ -112,8 +113,7 @@ export function todayFor(timezone: string | null | undefined): string {
   } catch {
     // an unknown zone: the device's own day below
   }
-  const d = new Date();
-  return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
+  return localToday();
 }
 
 /** The Monday on or before the date. */

@@ -7,6 +7,7 @@ import { InputText } from 'primereact/inputtext';
 import { formatUsd, money, type CommissionStatementDetail, type PayStatementInput } from '@loambook/common';
 import { ApiErrorMessage } from '@/components/api-error-message';
 import { FormField } from '@/components/form-field';
+import { localToday } from '@/lib/format';
 import { serverFormErrors } from '@/lib/form-errors';
 import { formatPeriod } from '../commission-format';
 
@@ -55,7 +56,7 @@ export function PayStatementDialog({
   onSubmit: (input: PayStatementInput) => Promise<unknown>;
   onClose: () => void;
 }) {
-  const [paidOn, setPaidOn] = useState(statement.periodEnd);
+  const [paidOn, setPaidOn] = useState(localToday);
   const [reference, setReference] = useState('');
   const [errors, setErrors] = useState<{ paidOn?: string; reference?: string }>({});
   const [formError, setFormError] = useState<unknown>(null);

@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, onTestFinished, vi } from 'vitest';
 import { screen, waitFor, within } from '@testing-library/react';
 import userEventBase from '@testing-library/user-event';
 import type { CommissionStatementDetail, Role } from '@loambook/common';
@@ -57,6 +57,12 @@ describe('a commission statement', () => {
   });
 
   it('is marked paid with the date and reference, saying what is posted', async () => {
+    // 9:30 pm on 20 July on this computer's clock: in a US zone UTC has reached the 21st.
+    vi.useFakeTimers({ toFake: ['Date'] });
+    vi.setSystemTime(new Date(2026, 6, 20, 21, 30));
+    onTestFinished(() => {
+      vi.useRealTimers();
+    });
     const { calls } = renderFor(
       'bookkeeper',
       makeStatement({ status: 'approved', approvedByName: 'Bea Books' }),
@@ -65,7 +71,8 @@ describe('a commission statement', () => {
     const dialog = await screen.findByRole('dialog', { name: 'Mark the statement paid' });
     expect(dialog).toHaveTextContent('Posts $216.80 from commissions payable (Ana Seller) to the bank');
     const paidOn = within(dialog).getByLabelText('Paid on');
-    expect(paidOn).toHaveValue('2026-07-15');
+    // Paid today on this computer's calendar (not the period's last day, nor UTC's day).
+    expect(paidOn).toHaveValue('2026-07-20');
     await userEvent.clear(paidOn);
     await userEvent.type(paidOn, '2026-07-17');
     await userEvent.type(within(dialog).getByLabelText('Reference'), 'Cheque 1042');

@@ -16,6 +16,7 @@ import { PageHeader } from '@/components/page-header';
 import { Select } from '@/components/select';
 import { useAppAbility } from '@/features/auth/ability';
 import { useCurrentBranch } from '@/features/branches/current-branch';
+import { localToday } from '@/lib/format';
 import { useStatements } from '../api/get-statements';
 import { useBuildStatements, useRunEarningCheck } from '../api/statement-actions';
 import { formatPeriod, STATUS_LABELS } from '../commission-format';
@@ -27,8 +28,6 @@ const STATUS_OPTIONS = [
   { label: 'Any status', value: ANY },
   ...(['draft', 'approved', 'paid'] as const).map((s) => ({ label: STATUS_LABELS[s], value: s })),
 ];
-
-const todayIso = () => new Date().toISOString().slice(0, 10);
 
 /** "1 line", "2 lines". */
 const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
@@ -156,7 +155,7 @@ export default function CommissionStatementsRoute() {
 function BuildDialog({ visible, onClose }: { visible: boolean; onClose: () => void }) {
   const notify = useNotify();
   const build = useBuildStatements();
-  const [day, setDay] = useState(todayIso());
+  const [day, setDay] = useState(localToday());
   const [error, setError] = useState<string | null>(null);
   const valid = DAY.test(day);
   const p = valid ? payPeriodFor(day) : null;

@@ -17,7 +17,8 @@ import { Select } from '@/components/select';
 import { serverFormErrors } from '@/lib/form-errors';
 import { formatDay } from '@/features/ledger/ledger-format';
 import { useRecordPayment } from '../api/record-payment';
-import { AMOUNT_PATTERN, cleanAmount, KIND_LABELS, localToday, METHOD_LABELS, usd } from '../payments-format';
+import { localToday } from '@/lib/format';
+import { AMOUNT_PATTERN, cleanAmount, KIND_LABELS, METHOD_LABELS, usd } from '../payments-format';
 
 interface RecordPaymentDialogProps {
   payments: ContractPayments;
