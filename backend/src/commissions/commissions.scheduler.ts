@@ -18,7 +18,8 @@ export const PGBOSS_SCHEMA = 'pgboss';
  * Runs the commission earning check on a cron schedule with pg-boss, on the application's own PostgreSQL.
  * The schedule and the jobs live in the database (schema pgboss), so they survive a restart, and several
  * app instances coordinate through it: pg-boss lets one instance per interval turn due schedules into
- * jobs, a scheduled job is created at most once per minute slot (a singleton key), and the queue's
+ * jobs, a scheduled job is created at most once per minute slot (a singleton key and slot, both on
+ * pg-boss's hand-over and on the job itself), and the queue's
  * 'singleton' policy lets only one earning job be active at a time. Every line is idempotent anyway (a
  * unique key per line and per ledger entry). COMMISSIONS_SCHEDULER=off leaves all of this out.
  */
@@ -71,7 +72,16 @@ export class CommissionsScheduler implements OnApplicationBootstrap, BeforeAppli
       retryDelay: 60,
       expireInSeconds: 30 * 60,
     });
-    await boss.schedule(EARNING_QUEUE, commissions.earningCron, {}, { tz: 'UTC' });
+    // pg-boss turns a due schedule into a job through its own internal queue, deduplicated per minute; a
+    // retried hand-over could still send the job twice (seen once in the two-instance test: two runs one
+    // second apart). A singleton slot of 60 s on the job itself makes a second send in the same minute a
+    // no-op, whichever instance sends it.
+    await boss.schedule(
+      EARNING_QUEUE,
+      commissions.earningCron,
+      {},
+      { tz: 'UTC', singletonKey: 'scheduled', singletonSeconds: 60 },
+    );
     await boss.work(EARNING_QUEUE, { pollingIntervalSeconds: poll }, async () => {
       const result = await this.commissions.runEarning();
       if (result.failures.length > 0) {
