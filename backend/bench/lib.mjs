@@ -37,7 +37,9 @@ export async function freePort() {
 /** The compiled server as a child process; `cpus` (e.g. '1') pins it there with taskset. */
 export async function startServer(database, extraEnv = {}, { cpus } = {}) {
   const port = await freePort();
-  const main = [process.execPath, path.join(DIST, 'main.js')];
+  // BENCH_SERVER_NODE_ARGS='--cpu-prof --cpu-prof-dir=/tmp/prof' profiles the server alone.
+  const nodeArgs = (process.env.BENCH_SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  const main = [process.execPath, ...nodeArgs, path.join(DIST, 'main.js')];
   const [cmd, ...args] = cpus ? ['taskset', '-c', cpus, ...main] : main;
   const child = spawn(cmd, args, {
     env: {
@@ -47,6 +49,10 @@ export async function startServer(database, extraEnv = {}, { cpus } = {}) {
       PORT: String(port),
       LOG_LEVEL: 'error',
       FRONTEND_DIST: '',
+      // BENCH_SERVER_NODE_OPTIONS='--cpu-prof --cpu-prof-dir=/tmp/prof' profiles the server alone.
+      ...(process.env.BENCH_SERVER_NODE_OPTIONS
+        ? { NODE_OPTIONS: process.env.BENCH_SERVER_NODE_OPTIONS }
+        : {}),
       ...extraEnv,
     },
     stdio: ['ignore', 'ignore', 'inherit'],

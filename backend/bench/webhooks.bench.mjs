@@ -3,8 +3,9 @@
 //   - "inserts": the insert into webhook_events and the posting inserts (journal entry, its three lines, the
 //     payment with its timeline row) — the transaction's writes alone, one statement each;
 //   - "app's statements": every statement the app runs for a posting event, in order (the duplicate lookup,
-//     the event claim, the contract locked with the charge check, LedgerService.post's one statement — built
-//     by the app's own postEntryStatement — and the payment with its timeline row).
+//     the event claim, the contract locked with the charge check, LedgerService.post's one statement, the
+//     payment with its timeline row, and for a balance payment on a lead still at contract signed the
+//     lead's look at moving on; built by the app's own code or captured from its repositories).
 // The posting events and the "app's statements" runs take turns (--rounds), and the ratio is the median of
 // the rounds' ratios, so that other work on the machine weighs on both sides alike.
 // Targets (issue #5): unique posting events ≥ 40% of the pgbench rate; a duplicate costs ≤ 1 ms (the
@@ -123,6 +124,29 @@ const serverCpuMs = () => {
   const f = readFileSync(`/proc/${server.pid}/stat`, 'utf8').split(') ')[1].split(' ');
   return { user: (Number(f[11]) * 1000) / 100, system: (Number(f[12]) * 1000) / 100 };
 };
+/** CPU time in ms (user + system) of every PostgreSQL process, from /proc: the database's share of a phase. */
+const postgresCpuMs = () => {
+  let ms = 0;
+  for (const pid of readdirSync('/proc').filter((d) => /^\d+$/.test(d))) {
+    try {
+      const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+      if (!stat.includes('(postgres)')) continue;
+      const f = stat.split(') ')[1].split(' ');
+      ms += ((Number(f[11]) + Number(f[12])) * 1000) / 100;
+    } catch {
+      // gone meanwhile
+    }
+  }
+  return ms;
+};
+/** This process's CPU (the load generator and the processor fake), and its waited-for children's (pgbench). */
+const selfCpuMs = () => {
+  const f = readFileSync('/proc/self/stat', 'utf8').split(') ')[1].split(' ');
+  return {
+    own: ((Number(f[11]) + Number(f[12])) * 1000) / 100,
+    children: ((Number(f[13]) + Number(f[14])) * 1000) / 100,
+  };
+};
 const sdk = new Stripe('sk_test_bench_driver', { host: '127.0.0.1', port: fake.port, protocol: 'http' });
 
 /** Makes `n` paid sessions (metadata as our links carry it); returns their events in the order made. */
@@ -226,7 +250,7 @@ try {
   const claim = `insert into webhook_events (event_id, type, api_version, created, payload, processed_at, outcome) values (${EVENT}, 'charge.succeeded', null, now(), ${lit(posting[0])}::jsonb, now(), 'processed') on conflict (event_id) do update set attempts = webhook_events.attempts + 1, processed_at = now(), outcome = 'processed', last_error = null, received_at = now() where webhook_events.processed_at is null returning id \\gset ev_`;
   const entry = `insert into journal_entries (branch_id, reason_code, source_kind, source_ref, idempotency_key, memo, effective_on, lead_id, contract_id, job_id, reverses_entry_id, posted_by) values (${B}, 'deposit.card', 'event', ${EVENT}, ${KEY}, 'Card deposit (bench)', current_date, ${L}, ${C}, null, null, null) on conflict (idempotency_key) do nothing returning id \\gset je_`;
   const lines = `insert into journal_lines (entry_id, position, account_id, branch_id, side, amount, salesperson_id) values (':je_id', 1, ${lit(acc['1050'])}, ${B}, 'debit', 970.70, null), (':je_id', 2, ${lit(acc['5100'])}, ${B}, 'debit', 29.30, null), (':je_id', 3, ${lit(acc['2100'])}, ${B}, 'credit', 1000.00, null);`;
-  const payment = `with p as (insert into payments (contract_id, branch_id, payment_request_id, kind, method, amount, fee, net, currency, processor_payment_intent_id, processor_charge_id, processor_balance_transaction_id, card_brand, card_last4, reference, received_on, recorded_by, request_key, journal_entry_id) values (${C}, ${B}, null, 'deposit', 'card', 1000.00, 29.30, 970.70, 'usd', 'pi_pgbench_' || :n, 'ch_pgbench_' || :n, 'txn_pgbench_' || :n, 'visa', '4242', null, current_date, null, null, ':je_id') on conflict do nothing returning id, branch_id, kind, amount) insert into lead_activities (lead_id, branch_id, kind, body, data, actor_id) select ${L}, p.branch_id, 'payment', 'Deposit of $1,000.00 received by card (visa 4242).', jsonb_build_object('paymentId', p.id, 'kind', p.kind, 'amount', p.amount::text), null from p returning data ->> 'paymentId' as id;`;
+  const payment = `with p as (insert into payments (contract_id, branch_id, payment_request_id, kind, method, amount, fee, net, currency, processor_payment_intent_id, processor_charge_id, processor_balance_transaction_id, card_brand, card_last4, reference, received_on, recorded_by, request_key, journal_entry_id) values (${C}, ${B}, null, 'deposit', 'card', 1000.00, 29.30, 970.70, 'usd', 'pi_pgbench_' || :n, 'ch_pgbench_' || :n, 'txn_pgbench_' || :n, 'visa', '4242', null, current_date, null, null, ':je_id') on conflict do nothing returning id, branch_id, kind, amount) insert into lead_activities (lead_id, branch_id, kind, body, data, actor_id) select ${L}, p.branch_id, 'payment', 'Deposit of $1,000.00 received by card (Visa •••• 4242).', jsonb_build_object('paymentId', p.id, 'kind', p.kind, 'amount', p.amount::text), null from p returning data ->> 'paymentId' as id;`;
   // LedgerService.post's one statement, built by the app's own code (postEntryStatement) for a card
   // deposit with placeholders, each then replaced by this transaction's value: the very SQL it sends.
   const { postEntryStatement } = require(path.join(DIST, 'ledger', 'ledger.repository.js'));
@@ -236,7 +260,7 @@ try {
     event: `'event'`,
     sourceRef: EVENT,
     key: KEY,
-    memo: `'Card deposit (visa •••• 4242), charge ch_pgbench_' || :n`,
+    memo: `'Card deposit (Visa •••• 4242), charge ch_pgbench_' || :n`,
     day: 'current_date',
     lead: L,
     contract: C,
@@ -269,10 +293,60 @@ try {
       return `(${v === null ? 'null' : (ledgerValues[v] ?? lit(v))})`;
     }) + ' \\aset je_';
   if (nth !== built.bindings.length) throw new Error('the ledger statement has unbound placeholders');
-  const header = ['\\set n random(1, 9000000000000000000)', `\\set k random(1, ${contracts.length})`];
+  // The contract locked with the charge check, as PaymentsRepository.contractForCharge builds it.
+  const { PaymentsRepository } = require(path.join(DIST, 'payments', 'payments.repository.js'));
+  const lockQuery = new PaymentsRepository(knex).contractForChargeQuery('contract', 'charge', knex).toSQL();
+  const lockValues = { contract: C, charge: `'ch_pgbench_' || :n` };
+  let lockNth = 0;
+  const contractLock =
+    lockQuery.sql.replace(/\s+/g, ' ').replace(/\?/g, () => {
+      const v = lockQuery.bindings[lockNth++];
+      return `(${lockValues[v] ?? lit(v)})`;
+    }) + ';';
+  if (lockNth !== lockQuery.bindings.length) throw new Error('the contract lock has unbound placeholders');
+  // A balance payment on a lead still at contract signed (every odd contract here: its events are all
+  // balance payments, and nothing moves its lead) also looks whether the lead can move on
+  // (JobsService.advanceLead: the lead locked, its facts) and whether it is paid in full
+  // (LeadsService.settleIfPaid: the lead locked). Their SQL is captured from the app's repositories, run
+  // once here on one lead, and replayed for the event's own lead.
+  const { JobsRepository } = require(path.join(DIST, 'jobs', 'jobs.repository.js'));
+  const { LeadsRepository } = require(path.join(DIST, 'leads', 'leads.repository.js'));
+  const sentinel = contracts[1].leadId;
+  const captured = [];
+  const onQuery = (q) => captured.push({ sql: q.sql, bindings: q.bindings ?? [] });
+  knex.on('query', onQuery);
+  try {
+    await new JobsRepository(knex).leadStage(sentinel, knex, true);
+    await new LeadsRepository(knex).facts(sentinel, knex);
+    await new LeadsRepository(knex).lockStage(sentinel, knex);
+  } finally {
+    knex.off('query', onQuery);
+  }
+  // knex reports a built query with ? placeholders and a raw one with $1, $2 …: both inlined.
+  const balanceStatements = captured.map(({ sql, bindings }) => {
+    const value = (v) => `(${v === sentinel ? L : lit(v)})`;
+    let nth = 0;
+    const used = new Set();
+    const text = sql.replace(/\s+/g, ' ').replace(/\$(\d+)|\?/g, (m, n) => {
+      const i = n ? Number(n) - 1 : nth++;
+      used.add(i);
+      return value(bindings[i]);
+    });
+    if (used.size !== bindings.length)
+      throw new Error(`a captured statement has unbound placeholders: ${sql}`);
+    return `${text};`;
+  });
+  if (balanceStatements.length !== 3)
+    throw new Error(`captured ${balanceStatements.length} statements, not 3`);
+  const header = [
+    '\\set n random(1, 9000000000000000000)',
+    `\\set k random(1, ${contracts.length})`,
+    // contracts[k - 1]: an odd index is a contract whose events are balance payments (payments() below).
+    '\\set balance (:k - 1) % 2',
+  ];
   const inserts = [...header, 'BEGIN;', claim, entry, lines, payment, 'COMMIT;'];
   // What the app runs for a posting event, in its order: the duplicate lookup, the event claim, the
-  // contract locked with the charge check (PaymentsRepository.contractForCharge), LedgerService.post's one
+  // contract locked with the charge check (PaymentsRepository.contractForChargeQuery), LedgerService.post's one
   // statement (the accounts are known: the first posting of a branch reads them once), the payment with its
   // timeline row. Left out: a deposit while the contract's deposit is not yet covered also sums the
   // contract's movements (the first few deposits of each contract here: a few % of the events), and the one
@@ -282,9 +356,12 @@ try {
     `select 1 from webhook_events where event_id = ${EVENT} and processed_at is not null;`,
     'BEGIN;',
     claim,
-    `select c.id, c.branch_id, c.lead_id, c.salesperson_id, c.price, c.deposit_amount, c.deposit_received_at, c.cancelled_at, to_char(c.signed_on, 'YYYY-MM-DD'), o.title, l.homeowner_name, l.email, l.state, b.name, b.phone, b.timezone, exists (select 1 from jobs j where j.contract_id = c.id and j.status = 'completed'), exists (select 1 from payments p where p.processor_charge_id = 'ch_pgbench_' || :n) from contracts c join leads l on l.id = c.lead_id join branches b on b.id = c.branch_id join proposal_options o on o.id = c.option_id where c.id = ${C} limit 1 for update of c;`,
+    contractLock,
     ledgerPost,
     payment,
+    '\\if :balance',
+    ...balanceStatements,
+    '\\endif',
     'COMMIT;',
   ];
   pgbenchDir = mkdtempSync(path.join(os.tmpdir(), 'loambook-pgbench-'));
@@ -331,9 +408,21 @@ try {
   const cpu0 = serverCpuMs();
   const rounds = [];
   const share = Math.ceil(posting.length / ROUNDS);
+  // Where the CPU goes, per posting event and per pgbench transaction (ms of one core).
+  const cpu = { appPg: 0, appSelf: 0, pgbenchPg: 0, pgbenchClient: 0, pgbenchTx: 0 };
   for (let r = 0; r < ROUNDS; r++) {
-    const tps = bench('app-statements', appStatements, Math.max(1, Math.round(SECONDS / ROUNDS)));
+    const seconds = Math.max(1, Math.round(SECONDS / ROUNDS));
+    let pg0 = postgresCpuMs();
+    let me0 = selfCpuMs();
+    const tps = bench('app-statements', appStatements, seconds);
+    cpu.pgbenchPg += postgresCpuMs() - pg0;
+    cpu.pgbenchClient += selfCpuMs().children - me0.children;
+    cpu.pgbenchTx += tps * seconds;
+    pg0 = postgresCpuMs();
+    me0 = selfCpuMs();
     const app = await run(posting.slice(r * share, (r + 1) * share));
+    cpu.appPg += postgresCpuMs() - pg0;
+    cpu.appSelf += selfCpuMs().own - me0.own;
     rounds.push({ tps, app });
   }
   const cpu1 = serverCpuMs();
@@ -391,11 +480,17 @@ try {
   );
   console.log(`  pgbench, the inserts only:          ${results.pgbench.inserts.toFixed(0).padStart(5)} tx/s`);
   console.log(
-    `  pgbench, the app's statements:      ${results.pgbench.app.toFixed(0).padStart(5)} tx/s  (median of the rounds; ${appStatements.length - header.length} statements)`,
+    `  pgbench, the app's statements:      ${results.pgbench.app.toFixed(0).padStart(5)} tx/s  (median of the rounds; ${appStatements.filter((x) => !x.startsWith('\\')).length} statements, 3 more on balance payments)`,
   );
   console.log(`  unique posting events:              ${fmt(results.posting)}`);
   console.log(
     `    server CPU per posting event:     ${(cpuPerEvent.user + cpuPerEvent.system).toFixed(2)} ms (user ${cpuPerEvent.user.toFixed(2)}, system ${cpuPerEvent.system.toFixed(2)})`,
+  );
+  console.log(
+    `    PostgreSQL CPU per posting event: ${(cpu.appPg / posting.length).toFixed(2)} ms; load generator and processor fake: ${(cpu.appSelf / posting.length).toFixed(2)} ms`,
+  );
+  console.log(
+    `    per pgbench transaction: PostgreSQL ${(cpu.pgbenchPg / cpu.pgbenchTx).toFixed(2)} ms, pgbench itself ${(cpu.pgbenchClient / cpu.pgbenchTx).toFixed(2)} ms`,
   );
   console.log(
     `    per round (events/s / pgbench tx/s): ${results.rounds.map((r) => `${r.rate.toFixed(0)}/${r.tps.toFixed(0)}`).join('  ')}`,

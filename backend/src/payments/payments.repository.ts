@@ -3,6 +3,7 @@ import type { Knex } from 'knex';
 import { KNEX } from '../database/database.module';
 import type { Db } from '../database/transaction';
 import type {
+  LeadStage,
   PaymentKind,
   PaymentListRow,
   PaymentMethod,
@@ -31,6 +32,8 @@ export interface PayableContract {
   branchPhone: string | null;
   timezone: string;
   jobCompleted: boolean;
+  /** The lead's stage as read with the contract (the lead itself is locked only to move it). */
+  leadStage: LeadStage;
 }
 
 export interface NewPaymentRequest {
@@ -273,13 +276,18 @@ export class PaymentsRepository {
     chargeId: string,
     db: Db,
   ): Promise<(PayableContract & { chargeKnown: boolean }) | undefined> {
-    const q = this.contractQuery(contractId, db, true);
-    q.select(
+    return this.contractForChargeQuery(contractId, chargeId, db) as Promise<
+      (PayableContract & { chargeKnown: boolean }) | undefined
+    >;
+  }
+
+  /** contractForCharge's statement, unrun (the webhook benchmark replays its SQL in pgbench). */
+  contractForChargeQuery(contractId: string, chargeId: string, db: Db) {
+    return this.contractQuery(contractId, db, true).select(
       db.raw('exists (select 1 from payments p where p.processor_charge_id = ?) as "chargeKnown"', [
         chargeId,
       ]),
     );
-    return q as Promise<(PayableContract & { chargeKnown: boolean }) | undefined>;
   }
 
   private contractQuery(id: string, db: Db, forUpdate: boolean) {
@@ -302,6 +310,7 @@ export class PaymentsRepository {
         'l.homeowner_name as homeownerName',
         'l.email',
         'l.state',
+        'l.stage as leadStage',
         'b.name as branchName',
         'b.phone as branchPhone',
         'b.timezone',
