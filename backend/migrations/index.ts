@@ -11,6 +11,7 @@ import * as ledger from './20261203200000_ledger';
 import * as payments from './20261203300000_payments';
 import * as commissions from './20261203400000_commissions';
 import * as reconciliation from './20261203500000_reconciliation';
+import * as ledgerChecksByIndex from './20261203600000_ledger_checks_by_index';
 
 /**
  * Every migration, in order. Listed here (not found on disk) so that the compiled server and the tests,
@@ -30,4 +31,5 @@ export const MIGRATIONS: ReadonlyArray<readonly [string, Knex.Migration]> = [
   ['20261203300000_payments', payments],
   ['20261203400000_commissions', commissions],
   ['20261203500000_reconciliation', reconciliation],
+  ['20261203600000_ledger_checks_by_index', ledgerChecksByIndex],
 ];

@@ -208,6 +208,19 @@ describe('the double-entry ledger', () => {
   });
 
   describe('what the database refuses', () => {
+    it('checks entries by index at any table size (its trigger functions never plan a sequential scan)', async () => {
+      // A session keeps a PL/pgSQL function's plans: one made on small tables (a sequential scan) would
+      // read every line at each commit as the ledger grows (migration 20261203600000).
+      const { rows } = await t.db.raw(
+        `select proname, coalesce(array_to_string(proconfig, ','), '') as config from pg_proc
+         where proname in ('journal_lines_guard', 'journal_entry_check') order by proname`,
+      );
+      expect(rows).toEqual([
+        { proname: 'journal_entry_check', config: 'enable_seqscan=off' },
+        { proname: 'journal_lines_guard', config: 'enable_seqscan=off' },
+      ]);
+    });
+
     it('refuses an unbalanced entry at commit, not before (a deferred constraint trigger)', async () => {
       let inserted = false;
       await expect(
