@@ -217,9 +217,9 @@ describe('margin and markup identities', () => {
     expect([t.grossMarginPct, t.markupPct]).toEqual(['20.00', '25.00']);
   });
 
-  // REFERENCE-VALUES.md also says "Margin 40% → markup 80%". That contradicts its own identity:
+  // REFERENCE-VALUES.md once said "Margin 40% → markup 80%", against its own identity:
   // markup = 0.40 / (1 − 0.40) = 66.67% (cost 100 → price 166.67, profit 66.67). A markup of 80% is a
-  // margin of 0.80 / 1.80 = 44.44%. We test the identity, not the misprint (reported to the lead).
+  // margin of 0.80 / 1.80 = 44.44%. The note now reads 66.67%; the test holds both identities.
   it('margin 40% → markup 66.67%, markup 80% → margin 44.44% (the identities of REFERENCE-VALUES.md, Money)', () => {
     expect(markupFromMargin('40').toDecimalPlaces(2).toFixed(2)).toBe('66.67');
     expect(marginFromMarkup('80').toDecimalPlaces(2).toFixed(2)).toBe('44.44');
