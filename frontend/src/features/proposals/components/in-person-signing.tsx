@@ -63,7 +63,7 @@ export default function InPersonSigning({
             ? `A copy with the notice of cancellation has been e-mailed to ${lead.email}, with a link to come back to it.`
             : 'The homeowner has no e-mail address: print the contract PDF and leave a copy with the notice of cancellation.'}
         </p>
-        <ContractSummary contract={contract} />
+        <ContractSummary contract={contract} timeZone={branch.timezone} />
         <div className="dialog-actions">
           <Button type="button" label="Done" icon="pi pi-check" onClick={onClose} />
         </div>

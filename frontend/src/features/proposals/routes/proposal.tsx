@@ -317,7 +317,7 @@ export default function ProposalRoute() {
         />
       ) : null}
 
-      {contract.data ? <ContractSummary contract={contract.data} /> : null}
+      {contract.data ? <ContractSummary contract={contract.data} timeZone={branch.data.timezone} /> : null}
 
       <Card className="content-card proposal-card">
         <ProposalBuilder
