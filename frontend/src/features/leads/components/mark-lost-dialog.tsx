@@ -1,11 +1,5 @@
-import { useState } from 'react';
-import type { FormEvent } from 'react';
-import { Button } from 'primereact/button';
 import { Dialog } from 'primereact/dialog';
-import { InputTextarea } from 'primereact/inputtextarea';
-import { FormField } from '@/components/form-field';
-import { ApiErrorMessage } from '@/components/api-error-message';
-import { serverFormErrors } from '@/lib/form-errors';
+import { ReasonForm } from '@/components/reason-form';
 import type { LeadDetail } from '@loambook/common';
 import { useMarkLost } from '../api/mark-lost';
 
@@ -36,62 +30,25 @@ export function MarkLostDialog(props: MarkLostDialogProps) {
 
 function MarkLostForm({ lead, onClose, onDone }: MarkLostDialogProps) {
   const markLost = useMarkLost();
-  const [reason, setReason] = useState('');
-  const [error, setError] = useState<string | null>(null);
-
-  const submit = async (event: FormEvent) => {
-    event.preventDefault();
-    if (!reason.trim()) {
-      setError('Say why the sale was lost.');
-      return;
-    }
-    try {
-      onDone(await markLost.mutateAsync({ leadId: lead.id, reason: reason.trim() }));
-    } catch (e) {
-      setError(serverFormErrors(e, ['reason'] as const).fields.reason ?? null);
-    }
-  };
-
   return (
-    <form className="dialog-form" onSubmit={submit} noValidate>
-      <p className="dialog-intro">
-        {lead.homeownerName} leaves the open pipeline. A lost lead can be reopened later from where its work
-        left off.
-      </p>
-      <FormField
-        id="lost-reason"
-        label="Reason"
-        error={error}
-        required
-        hint="E.g. chose another contractor, price, will do it next year."
-      >
-        {({ invalid, ...control }) => (
-          <InputTextarea
-            {...control}
-            value={reason}
-            onChange={(e) => {
-              setReason(e.target.value);
-              setError(null);
-            }}
-            invalid={invalid}
-            rows={3}
-            maxLength={500}
-            autoFocus
-            className="w-full"
-          />
-        )}
-      </FormField>
-      {markLost.isError && !error ? <ApiErrorMessage error={markLost.error} /> : null}
-      <div className="dialog-actions">
-        <Button type="button" label="Keep it open" severity="secondary" outlined onClick={onClose} />
-        <Button
-          type="submit"
-          label="Confirm lost"
-          severity="danger"
-          icon="pi pi-times"
-          loading={markLost.isPending}
-        />
-      </div>
-    </form>
+    <ReasonForm
+      id="lost-reason"
+      intro={
+        <p className="dialog-intro">
+          {lead.homeownerName} leaves the open pipeline. A lost lead can be reopened later from where its work
+          left off.
+        </p>
+      }
+      hint="E.g. chose another contractor, price, will do it next year."
+      missing="Say why the sale was lost."
+      maxLength={500}
+      field="reason"
+      keepLabel="Keep it open"
+      confirmLabel="Confirm lost"
+      confirmIcon="pi pi-times"
+      pending={markLost.isPending}
+      onSubmit={async (reason) => onDone(await markLost.mutateAsync({ leadId: lead.id, reason }))}
+      onClose={onClose}
+    />
   );
 }
