@@ -125,7 +125,7 @@ describe('journey: inspection to signed contract', () => {
     // A new option starts with one empty line.
     async function line(optionIndex: number, item: RegExp, quantity: string) {
       await page.getByLabel('Item', { exact: true }).last().click();
-      await page.getByRole('option', { name: item }).first().click();
+      await page.getByRole('option', { name: item }).filter({ visible: true }).first().click();
       await page.getByLabel('Quantity', { exact: true }).last().fill(quantity);
       void optionIndex;
     }

@@ -211,7 +211,8 @@ export async function startStack(journey: string): Promise<Stack> {
   });
   const shotsDir = path.join(REPO, 'frontend', 'e2e', '.screenshots', journey);
   mkdirSync(shotsDir, { recursive: true });
-  for (const old of readdirSync(shotsDir)) if (old.startsWith('FAILED-')) rmSync(path.join(shotsDir, old));
+  // This run's screenshots only: numbering moves when a journey gains a step.
+  for (const old of readdirSync(shotsDir)) if (old.endsWith('.png')) rmSync(path.join(shotsDir, old));
   let n = 0;
 
   const stack: Stack = {
