@@ -264,6 +264,23 @@ try {
     ),
   );
   const lit = (x) => (x === null ? 'null' : `'${String(x).replace(/'/g, "''")}'`);
+  /**
+   * The app's SQL with each bound value written in: `valueOf(v)` gives a pgbench expression for a value it
+   * stands for (this transaction's contract, lead, key…), else the value is quoted. knex reports a built
+   * query with ? placeholders and a raw one with $1, $2 …: both are read.
+   */
+  const inline = (sql, bindings, valueOf = () => undefined) => {
+    let nth = 0;
+    const used = new Set();
+    const text = sql.replace(/\s+/g, ' ').replace(/\$(\d+)|\?/g, (_m, n) => {
+      const i = n ? Number(n) - 1 : nth++;
+      used.add(i);
+      const v = bindings[i];
+      return `(${valueOf(v) ?? lit(v)})`;
+    });
+    if (used.size !== bindings.length) throw new Error(`unbound placeholders in ${sql}`);
+    return text;
+  };
   const B = lit(branch.id);
   // Spread over the 40 contracts, as the events are (a contract's row is locked by the app's transaction).
   const C = `(array[${contracts.map((c) => lit(c.id)).join(', ')}]::uuid[])[:k]`;
@@ -309,24 +326,12 @@ try {
       { accountId: acc['2100'], side: 'credit', amount: '1000.00', salespersonId: null },
     ],
   );
-  let nth = 0;
-  const ledgerPost =
-    built.sql.replace(/\s+/g, ' ').replace(/\?/g, () => {
-      const v = built.bindings[nth++];
-      return `(${v === null ? 'null' : (ledgerValues[v] ?? lit(v))})`;
-    }) + ' \\aset je_';
-  if (nth !== built.bindings.length) throw new Error('the ledger statement has unbound placeholders');
+  const ledgerPost = inline(built.sql, built.bindings, (v) => ledgerValues[v]) + ' \\aset je_';
   // The contract locked with the charge check, as PaymentsRepository.contractForCharge builds it.
   const { PaymentsRepository } = require(path.join(DIST, 'payments', 'payments.repository.js'));
   const lockQuery = new PaymentsRepository(knex).contractForChargeQuery('contract', 'charge', knex).toSQL();
   const lockValues = { contract: C, charge: `'ch_pgbench_' || :n` };
-  let lockNth = 0;
-  const contractLock =
-    lockQuery.sql.replace(/\s+/g, ' ').replace(/\?/g, () => {
-      const v = lockQuery.bindings[lockNth++];
-      return `(${lockValues[v] ?? lit(v)})`;
-    }) + ';';
-  if (lockNth !== lockQuery.bindings.length) throw new Error('the contract lock has unbound placeholders');
+  const contractLock = inline(lockQuery.sql, lockQuery.bindings, (v) => lockValues[v]) + ';';
   // A balance payment on a lead still at contract signed (every odd contract here: its events are all
   // balance payments, and nothing moves its lead) also looks whether the lead can move on
   // (JobsService.advanceLead: the lead locked, its facts) and whether it is paid in full
@@ -345,20 +350,9 @@ try {
   } finally {
     knex.off('query', onQuery);
   }
-  // knex reports a built query with ? placeholders and a raw one with $1, $2 …: both inlined.
-  const balanceStatements = captured.map(({ sql, bindings }) => {
-    const value = (v) => `(${v === sentinel ? L : lit(v)})`;
-    let nth = 0;
-    const used = new Set();
-    const text = sql.replace(/\s+/g, ' ').replace(/\$(\d+)|\?/g, (m, n) => {
-      const i = n ? Number(n) - 1 : nth++;
-      used.add(i);
-      return value(bindings[i]);
-    });
-    if (used.size !== bindings.length)
-      throw new Error(`a captured statement has unbound placeholders: ${sql}`);
-    return `${text};`;
-  });
+  const balanceStatements = captured.map(
+    ({ sql, bindings }) => `${inline(sql, bindings, (v) => (v === sentinel ? L : undefined))};`,
+  );
   if (balanceStatements.length !== 3)
     throw new Error(`captured ${balanceStatements.length} statements, not 3`);
   const header = [

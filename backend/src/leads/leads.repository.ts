@@ -167,24 +167,27 @@ interface Sql {
   bindings: Knex.Value[];
 }
 
-const placeholders = (values: readonly unknown[]) => values.map(() => '?').join(', ');
-
-/** The leads a person may see (scope) that match the filter; `withStage` false leaves the stage filter out (totals). */
-function pipelineConditions(scope: LeadScope, f: Partial<PipelineFilter>, withStage: boolean): Sql {
-  const where: string[] = [];
+/** Conditions joined by `and`, each with its values in order; `in_` with an empty list matches nothing. */
+function conditions(first: string[] = []) {
+  const where = [...first];
   const bindings: Knex.Value[] = [];
   const add = (sql: string, ...values: Knex.Value[]) => {
     where.push(sql);
     bindings.push(...values);
   };
-  if (scope.branchIds)
-    add(
-      scope.branchIds.length ? `l.branch_id in (${placeholders(scope.branchIds)})` : 'false',
-      ...scope.branchIds,
-    );
+  const in_ = (column: string, values: readonly Knex.Value[]) =>
+    add(values.length ? `${column} in (${values.map(() => '?').join(', ')})` : 'false', ...values);
+  const done = (): Sql => ({ sql: where.length ? where.join(' and ') : 'true', bindings });
+  return { add, in_, done };
+}
+
+/** The leads a person may see (scope) that match the filter; `withStage` false leaves the stage filter out (totals). */
+function pipelineConditions(scope: LeadScope, f: Partial<PipelineFilter>, withStage: boolean): Sql {
+  const { add, in_, done } = conditions();
+  if (scope.branchIds) in_('l.branch_id', scope.branchIds);
   if (scope.salespersonId) add('l.salesperson_id = ?', scope.salespersonId);
   if (f.branchId) add('l.branch_id = ?', f.branchId);
-  if (withStage && f.stages?.length) add(`l.stage in (${placeholders(f.stages)})`, ...f.stages);
+  if (withStage && f.stages?.length) in_('l.stage', f.stages);
   if (f.salespersonId) add('l.salesperson_id = ?', f.salespersonId);
   if (f.minAgeDays !== undefined) add('l.created_at <= now() - make_interval(days => ?)', f.minAgeDays);
   if (f.maxAgeDays !== undefined) add('l.created_at > now() - make_interval(days => ?)', f.maxAgeDays + 1);
@@ -200,31 +203,22 @@ function pipelineConditions(scope: LeadScope, f: Partial<PipelineFilter>, withSt
   }
   if (f.approvalPending !== undefined)
     add(f.approvalPending ? APPROVAL_PENDING_SQL : `not ${APPROVAL_PENDING_SQL}`);
-  return { sql: where.length ? where.join(' and ') : 'true', bindings };
+  return done();
 }
 
 /** Per-stage counts and value for branch, salesperson and stage filters, from lead_stage_totals. */
 function storedTotals(scope: LeadScope, f: PipelineFilter): Sql {
-  const where = ['t.lead_count > 0'];
-  const bindings: Knex.Value[] = [];
-  if (scope.branchIds) {
-    where.push(scope.branchIds.length ? `t.branch_id in (${placeholders(scope.branchIds)})` : 'false');
-    bindings.push(...scope.branchIds);
-  }
-  if (f.branchId) {
-    where.push('t.branch_id = ?');
-    bindings.push(f.branchId);
-  }
+  const { add, in_, done } = conditions(['t.lead_count > 0']);
+  if (scope.branchIds) in_('t.branch_id', scope.branchIds);
+  if (f.branchId) add('t.branch_id = ?', f.branchId);
   const sp = scope.salespersonId ?? f.salespersonId;
-  if (sp) {
-    where.push('t.salesperson_key = ?');
-    bindings.push(sp);
-  }
-  if (scope.salespersonId && f.salespersonId && f.salespersonId !== scope.salespersonId) where.push('false');
+  if (sp) add('t.salesperson_key = ?', sp);
+  if (scope.salespersonId && f.salespersonId && f.salespersonId !== scope.salespersonId) add('false');
+  const where = done();
   return {
     sql: `select t.stage, sum(t.lead_count)::integer as count, sum(t.value_total)::text as value
-          from lead_stage_totals t where ${where.join(' and ')} group by t.stage`,
-    bindings,
+          from lead_stage_totals t where ${where.sql} group by t.stage`,
+    bindings: where.bindings,
   };
 }
 

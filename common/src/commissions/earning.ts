@@ -20,7 +20,7 @@
 // the scheduled job happened to notice — so a late run gives the same dates and the same statements.
 // Facts are instants ('2026-07-02T18:00:00Z') as the database stores them; `asOf` is the clock of the check.
 // `refundedAt` means a refund that unwinds the sale (a partial goodwill credit is not a clawback event).
-import { money, MoneyDecimal, type Money } from '../money';
+import { money, MoneyDecimal, toMoneyString, type Money } from '../money';
 import { addCalendarDays, calendarDayNumber, type IsoDate } from '../deadlines/calendar-date';
 import { cancellationWindowOpen, todayInZone } from '../deadlines/zoned-today';
 import { throwIfIssues, type CommissionIssue } from './errors';
@@ -161,7 +161,7 @@ export function commissionEvents(
         salespersonId: line.salespersonId,
         milestone: line.milestone,
         kind: 'clawback',
-        amount: earned.negated().toFixed(2),
+        amount: toMoneyString(earned.negated()),
         effectiveOn,
         idempotencyKey: key,
       });

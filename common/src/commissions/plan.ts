@@ -41,7 +41,7 @@
 //
 // MILESTONES — `firstMilestonePct` of each salesperson's part (rounded half-up to cents) is earned at
 // 'deposit_cleared_window_closed'; the rest of the part (part − first, exact) at 'job_completed'.
-import { isDecimalString, money, MoneyDecimal, toCents, type Money } from '../money';
+import { isDecimalString, money, MoneyDecimal, toCents, toMoneyString, type Money } from '../money';
 import { throwIfIssues, type CommissionIssue } from './errors';
 import { allocateByLargestRemainder, validateSplits, type CommissionSplitShare } from './splits';
 
@@ -327,7 +327,7 @@ export function computeCommission(plan: CommissionPlan, deal: CommissionDeal): C
   );
   const firstPct = money(plan.firstMilestonePct);
   return {
-    base: toCents(base).toFixed(2),
+    base: toMoneyString(base),
     grossMarginPct: margin === null ? null : margin.toFixed(2),
     total: total.toFixed(2),
     parts: deal.splits.map((s, i) => {

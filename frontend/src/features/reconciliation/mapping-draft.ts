@@ -63,10 +63,6 @@ export function draftFromSuggestion(s: BankCsvMappingSuggestion): MappingDraft {
   };
 }
 
-/** Whether the guess found any column at all. */
-export const guessedAnything = (s: BankCsvMappingSuggestion) =>
-  s.dateColumn !== null || s.descriptionColumn !== null || s.amount !== null;
-
 /** The short names of the date formats, for sentences ("month/day/year or day/month/year"). */
 export const DATE_FORMAT_NAMES: Record<BankDateFormat, string> = {
   'YYYY-MM-DD': 'year-month-day',

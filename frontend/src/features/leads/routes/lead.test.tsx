@@ -9,6 +9,7 @@ import {
   type ProposalSummary,
 } from '@loambook/common';
 import { routes } from '@/app/router';
+import { makeContractView } from '@/testing/contract-view';
 import { fakeApi } from '@/testing/fake-api';
 import { BRANCH_IDS, makeBranch, makeUser, renderApp, signInAs } from '@/testing/render';
 
@@ -94,37 +95,22 @@ const signed: ProposalSummary = {
   ],
 };
 
-const contract: ContractView = {
+const contract: ContractView = makeContractView({
   id: CONTRACT_ID,
-  status: 'signed',
-  proposalId: 'prop-1',
-  proposalVersion: 1,
-  optionId: 'opt-1',
   option: { position: 1, title: 'Stabilise the slab' },
   leadId: LEAD_ID,
   branchId: BRANCH_IDS.mrw,
   salespersonId: salesperson.id,
-  homeownerName: 'Marisol Ebbing',
   price: '5420.00',
-  tax: '0.00',
   depositAmount: '0.00',
-  signedByName: 'Marisol Ebbing',
   signedAt: SIGNED_AT,
   signedOn: '2025-07-20',
-  signedIp: null,
-  signedUserAgent: null,
-  signedInPerson: true,
-  cancellationStatement: 'You may cancel this transaction …',
   lastDayToCancel: '2025-07-23',
   cancellableUntil: '2025-07-24T04:59:59.999Z',
   windowOpen: false,
-  notices: [],
-  pdfUrl: `/api/contracts/${CONTRACT_ID}/pdf`,
-  pdfStored: true,
-  cancellation: null,
   canCancel: false,
   createdAt: SIGNED_AT,
-};
+});
 
 const splits: ContractCommissionSplitsView = {
   contractId: CONTRACT_ID,

@@ -15,7 +15,6 @@ import {
   columnLetter,
   DATE_FORMAT_LABELS,
   DATE_FORMAT_NAMES,
-  guessedAnything,
   type MappingDraft,
   type MappingField,
 } from '../mapping-draft';
@@ -50,14 +49,13 @@ function roleOf(draft: MappingDraft, column: number): string | null {
  * and whether the first row names the columns.
  */
 export function MappingStep({ preview, draft, onChange, errors }: MappingStepProps) {
+  const body = draft.hasHeaderRow ? preview.rows.slice(1) : preview.rows;
+  const firstRowNumber = draft.hasHeaderRow ? 2 : 1;
   const set = <K extends keyof MappingDraft>(key: K, value: MappingDraft[K]) => {
     const next = { ...draft, [key]: value };
     // A date column chosen by hand whose dates fit one format only: that format is chosen with it.
     if (key === 'dateColumn' && next.dateColumn !== null && next.dateFormat === null) {
-      const only = dateFormatsFitting(
-        next.hasHeaderRow ? preview.rows.slice(1) : preview.rows,
-        next.dateColumn,
-      );
+      const only = dateFormatsFitting(body, next.dateColumn);
       if (only.length === 1) next.dateFormat = only[0]!;
     }
     onChange(next);
@@ -65,8 +63,6 @@ export function MappingStep({ preview, draft, onChange, errors }: MappingStepPro
   const columns = Array.from({ length: preview.columnCount }, (_, i) => i);
   const options = columns.map((i) => ({ label: columnLabel(preview.rows, i, draft.hasHeaderRow), value: i }));
   const withNone = [{ label: 'None', value: -1 }, ...options];
-  const body = draft.hasHeaderRow ? preview.rows.slice(1) : preview.rows;
-  const firstRowNumber = draft.hasHeaderRow ? 2 : 1;
   // The formats the chosen date column's cells fit, in the rows shown (the server reads the whole file).
   const fits: readonly BankDateFormat[] =
     draft.dateColumn === null ? BANK_DATE_FORMATS : dateFormatsFitting(body, draft.dateColumn);
@@ -112,7 +108,8 @@ export function MappingStep({ preview, draft, onChange, errors }: MappingStepPro
       </h2>
       {preview.mappingSource ? (
         <p className="mapping-step__note">{SOURCE_NOTE[preview.mappingSource]}</p>
-      ) : guessedAnything(preview.suggestion) ? (
+      ) : preview.suggestion.hasHeaderRow ? (
+        // A header cell was recognised, so some column was guessed, though not a whole mapping.
         <Message
           severity="info"
           text="Some column names were recognised and are chosen below: check them and choose the rest."

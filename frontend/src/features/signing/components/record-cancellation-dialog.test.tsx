@@ -3,6 +3,7 @@ import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { defineRulesFor, type AuthUser, type ContractView, type LeadDetail } from '@loambook/common';
 import { routes } from '@/app/router';
+import { makeContractView } from '@/testing/contract-view';
 import { fakeApi } from '@/testing/fake-api';
 import { BRANCH_IDS, makeBranch, makeUser, renderApp, signInAs } from '@/testing/render';
 
@@ -44,38 +45,14 @@ const lead: LeadDetail = {
   readOnly: false,
 };
 
-const contract = (overrides: Partial<ContractView> = {}): ContractView => ({
-  id: CONTRACT_ID,
-  status: 'signed',
-  proposalId: 'prop-1',
-  proposalVersion: 1,
-  optionId: 'opt-1',
-  option: { position: 2, title: 'Push piers on the east wall' },
-  leadId: LEAD_ID,
-  branchId: BRANCH_IDS.mrw,
-  salespersonId: salesperson.id,
-  homeownerName: 'Marisol Ebbing',
-  price: '2767.50',
-  tax: '0.00',
-  depositAmount: '500.00',
-  signedByName: 'Marisol Ebbing',
-  signedAt: '2026-12-01T18:29:00.000Z',
-  signedOn: '2026-12-01',
-  signedIp: null,
-  signedUserAgent: null,
-  signedInPerson: true,
-  cancellationStatement: 'You may cancel this transaction …',
-  lastDayToCancel: '2026-12-04',
-  cancellableUntil: '2026-12-05T04:59:59.999Z',
-  windowOpen: true,
-  notices: [],
-  pdfUrl: `/api/contracts/${CONTRACT_ID}/pdf`,
-  pdfStored: true,
-  cancellation: null,
-  canCancel: true,
-  createdAt: '2026-12-01T18:29:00.000Z',
-  ...overrides,
-});
+const contract = (overrides: Partial<ContractView> = {}): ContractView =>
+  makeContractView({
+    id: CONTRACT_ID,
+    leadId: LEAD_ID,
+    branchId: BRANCH_IDS.mrw,
+    salespersonId: salesperson.id,
+    ...overrides,
+  });
 
 function renderLead(user: AuthUser, view: ContractView, onCancel?: (note: unknown) => void) {
   signInAs(user);
