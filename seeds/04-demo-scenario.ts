@@ -10,6 +10,7 @@ import {
   balancePaidByCard,
   balancePaidToBank,
   calendarWeekday,
+  cardBrandName,
   cancellationDeadline,
   checkInstallEntry,
   combineDecisions,
@@ -1691,7 +1692,7 @@ class ScenarioWriter {
     const fee = cardFee(gross);
     const net = money(gross).minus(fee).toFixed(2);
     const card = CARDS[cardName];
-    const cardText = ` (${card.brand} •••• ${card.last4})`;
+    const cardText = ` (${cardBrandName(card.brand)} •••• ${card.last4})`;
     const posting =
       kind === 'deposit'
         ? depositCapturedByCard({ gross, fee, memo: `Card deposit${cardText}, charge ${chargeId}` })
